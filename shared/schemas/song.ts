@@ -6,15 +6,23 @@ export const timeSignatureSchema = z.object({
 });
 export type TimeSignature = z.infer<typeof timeSignatureSchema>;
 
-export const songInputSchema = z.object({
+const songFields = {
   title: z.string().trim().min(1, { message: 'Give the song a title.' }).max(120),
-  artistAlias: z.string().trim().max(120).default(''),
+  artistAlias: z.string().trim().max(120),
   bpm: z.number({ message: 'Enter the tempo in BPM.' }).min(20, { message: 'Tempo must be 20–400 BPM.' }).max(400, { message: 'Tempo must be 20–400 BPM.' }),
-  timeSignature: timeSignatureSchema.default({ beats: 4, beatUnit: 4 }),
-  notes: z.string().max(4000).default(''),
+  timeSignature: timeSignatureSchema,
+  notes: z.string().max(4000),
+};
+
+export const songInputSchema = z.object({
+  ...songFields,
+  artistAlias: songFields.artistAlias.default(''),
+  timeSignature: songFields.timeSignature.default({ beats: 4, beatUnit: 4 }),
+  notes: songFields.notes.default(''),
 });
 export type SongInput = z.input<typeof songInputSchema>;
-export const songPatchSchema = songInputSchema.partial();
+/** A partial update: absent fields stay as stored (no defaults here on purpose). */
+export const songPatchSchema = z.object(songFields).partial();
 
 export const songSchema = z.object({
   id: z.string(),

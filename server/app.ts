@@ -1,0 +1,98 @@
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
+import cookieParser from 'cookie-parser';
+import express, { Router } from 'express';
+import helmet from 'helmet';
+import { pino } from 'pino';
+import { pinoHttp } from 'pino-http';
+import { createAudit } from './audit/audit.service';
+import { authRoutes } from './auth/auth.routes';
+import { createAuthService } from './auth/auth.service';
+import type { AppConfig } from './config/env';
+import type { Database } from './db/client';
+import { requireSession, requireTeam } from './http/auth.middleware';
+import { errorMiddleware, notFoundMiddleware } from './http/error-middleware';
+import { createSongsRepository } from './songs/songs.repository';
+import { songsRoutes } from './songs/songs.routes';
+import { createTeamsRepository } from './teams/teams.repository';
+import { teamsRoutes } from './teams/teams.routes';
+import { createUsersRepository } from './users/users.repository';
+
+export interface AppDeps {
+  db: Database;
+  config: AppConfig;
+  /** Sign-in attempts per address and e-mail per 15 minutes. */
+  signInLimit?: number;
+}
+
+/** Builds the Express app; `server/main.ts` listens, tests drive it with supertest. */
+export function createApp(deps: AppDeps) {
+  const { db, config } = deps;
+  const logger = pino({ level: config.logLevel });
+  const users = createUsersRepository(db);
+  const teams = createTeamsRepository(db);
+  const audit = createAudit(db);
+  const songs = createSongsRepository(db);
+  const auth = createAuthService({ db, users, teams, audit });
+  const tokens = { secret: config.jwtSecret, hours: config.sessionHours, secureCookie: config.publicUrl.startsWith('https:') };
+
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          'default-src': ["'self'"],
+          'img-src': ["'self'", 'data:', 'blob:'],
+          'media-src': ["'self'", 'blob:'],
+          'style-src': ["'self'", "'unsafe-inline'"],
+          'script-src': ["'self'"],
+          'connect-src': ["'self'"],
+          'font-src': ["'self'", 'data:'],
+        },
+      },
+    }),
+  );
+  app.use(
+    pinoHttp({
+      logger,
+      autoLogging: { ignore: (req) => !req.url?.startsWith('/api') },
+      serializers: {
+        req: (req: { id: unknown; method: string; url: string }) => ({ id: req.id, method: req.method, url: req.url }),
+        res: (res: { statusCode: number }) => ({ status: res.statusCode }),
+      },
+    }),
+  );
+  app.use(cookieParser());
+
+  const session = requireSession({ users, secret: config.jwtSecret });
+  const team = requireTeam({ teams });
+
+  const api = Router();
+  api.use(express.json({ limit: '1mb' }));
+  api.get('/health', async (_req, res) => {
+    await db.execute('select 1');
+    res.json({ ok: true });
+  });
+  api.use('/auth', authRoutes({ auth, tokens, session, signInLimit: deps.signInLimit ?? 20 }));
+
+  const teamScoped = Router({ mergeParams: true });
+  teamScoped.use('/songs', songsRoutes({ songs }));
+
+  api.use('/teams', session, teamsRoutes({ teams, audit, team, features: teamScoped }));
+  api.use(notFoundMiddleware);
+  api.use(errorMiddleware);
+  app.use('/api', api);
+
+  // The built Angular app; every other path falls back to index.html for the client router.
+  if (existsSync(join(config.webRoot, 'index.html'))) {
+    app.use(express.static(config.webRoot, { index: false, maxAge: '1h' }));
+    app.get('/{*splat}', (_req, res) => {
+      res.setHeader('Cache-Control', 'no-cache');
+      res.sendFile(join(config.webRoot, 'index.html'));
+    });
+  }
+  app.use(errorMiddleware);
+  return app;
+}
