@@ -1,0 +1,42 @@
+import { Routes } from '@angular/router';
+import { authGuard, guestGuard, permissionGuard } from './core/auth/auth.guard';
+
+export const routes: Routes = [
+  {
+    path: 'sign-in',
+    title: 'Sign in · Tuckline',
+    canActivate: [guestGuard],
+    loadComponent: () => import('./auth/sign-in/sign-in').then((m) => m.SignIn),
+  },
+  {
+    path: 'sign-up',
+    title: 'Create an account · Tuckline',
+    canActivate: [guestGuard],
+    loadComponent: () => import('./auth/sign-up/sign-up').then((m) => m.SignUp),
+  },
+  {
+    path: '',
+    canActivate: [authGuard],
+    loadComponent: () => import('./shell/shell').then((m) => m.Shell),
+    children: [
+      { path: '', pathMatch: 'full', redirectTo: 'songs' },
+      {
+        path: 'songs',
+        title: 'Songs · Tuckline',
+        loadComponent: () => import('./songs/songs-list/songs-list').then((m) => m.SongsList),
+      },
+      {
+        path: 'songs/:songId',
+        title: 'Song · Tuckline',
+        loadComponent: () => import('./song/song-page/song-page').then((m) => m.SongPage),
+      },
+      {
+        path: 'team',
+        title: 'Team · Tuckline',
+        canActivate: [permissionGuard('manageMembers')],
+        loadComponent: () => import('./team/team-members/team-members').then((m) => m.TeamMembers),
+      },
+    ],
+  },
+  { path: '**', redirectTo: 'songs' },
+];

@@ -1,0 +1,59 @@
+import { ChangeDetectionStrategy, Component, DestroyRef, inject, signal } from '@angular/core';
+import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
+import { NonNullableFormBuilder, ReactiveFormsModule } from '@angular/forms';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatInputModule } from '@angular/material/input';
+import { MatProgressBarModule } from '@angular/material/progress-bar';
+import { Router, RouterLink } from '@angular/router';
+import { signUpSchema } from '../../../../shared/schemas/auth';
+import { AuthService } from '../../core/auth/auth.service';
+import { applyServerIssues, fieldError, zodValidator } from '../../core/forms/zod-validator';
+import { toApiFailure } from '../../core/http/api-error';
+import { Icon } from '../../ui/icon/icon';
+
+@Component({
+  selector: 'tl-sign-up',
+  imports: [ReactiveFormsModule, RouterLink, MatFormFieldModule, MatInputModule, MatButtonModule, MatProgressBarModule, Icon],
+  templateUrl: './sign-up.html',
+  styleUrl: '../auth-page.scss',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+})
+export class SignUp {
+  private readonly auth = inject(AuthService);
+  private readonly router = inject(Router);
+  private readonly destroyRef = inject(DestroyRef);
+
+  protected readonly form = inject(NonNullableFormBuilder).group({
+    displayName: ['', zodValidator(signUpSchema.shape.displayName)],
+    email: ['', zodValidator(signUpSchema.shape.email)],
+    password: ['', zodValidator(signUpSchema.shape.password)],
+    teamName: [''],
+  });
+  protected readonly busy = signal(false);
+  protected readonly formError = signal<string | null>(null);
+  protected readonly fieldError = fieldError;
+
+  protected submit(): void {
+    this.formError.set(null);
+    const raw = this.form.getRawValue();
+    const parsed = signUpSchema.safeParse({ ...raw, teamName: raw.teamName.trim() || undefined });
+    if (!parsed.success) {
+      this.form.markAllAsTouched();
+      return;
+    }
+    this.busy.set(true);
+    this.auth
+      .signUp(parsed.data)
+      .pipe(takeUntilDestroyed(this.destroyRef))
+      .subscribe({
+        next: () => void this.router.navigate(['/songs']),
+        error: (err: unknown) => {
+          this.busy.set(false);
+          const failure = toApiFailure(err);
+          const rest = applyServerIssues(this.form, failure.issues);
+          this.formError.set(failure.issues.length && !rest.length ? null : failure.message);
+        },
+      });
+  }
+}
