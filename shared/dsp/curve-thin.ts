@@ -1,0 +1,84 @@
+import type { GainCurve, GainPoint } from './gain-curve';
+
+export interface ThinOptions {
+  /** Largest error allowed, dB, for linear interpolation in dB and in amplitude (default 0.5). */
+  toleranceDb?: number;
+  /** Errors where the true curve is at or below this level do not count, dB (default −40). */
+  ignoreBelowDb?: number;
+}
+
+/** Share of the tolerance the chords may use at the curve's own points; the rest covers the stretches between them. Our choice. */
+const TOLERANCE_SHARE = 0.9;
+
+/**
+ * Thins a gain curve with Ramer–Douglas–Peucker (Ramer 1972; Douglas & Peucker
+ * 1973) in dB, using the vertical error instead of the perpendicular
+ * distance, and accepting a chord only when BOTH ways a DAW may read it
+ * stay within `toleranceDb` of every original point above `ignoreBelowDb`:
+ *   straight in dB:        G_chord(u) = G_i + (G_j − G_i)·u
+ *   straight in amplitude: a_chord(u) = a_i + (a_j − a_i)·u, error = |20·log10(a_chord / a_k)|
+ * The ends of flat runs are kept as they are (they are exact and split the
+ * work into short stretches). Units: seconds and dB in and out.
+ */
+export function thinCurve(curve: GainCurve, opts: ThinOptions = {}): GainCurve {
+  const pts = curve.points;
+  const n = pts.length;
+  if (n <= 2) return { ...curve, points: pts.slice() };
+  const tol = (opts.toleranceDb ?? 0.5) * TOLERANCE_SHARE;
+  const ignoreBelow = opts.ignoreBelowDb ?? -40;
+  const ratioTol = Math.pow(10, tol / 20);
+  const t = new Float64Array(n);
+  const g = new Float64Array(n);
+  const a = new Float64Array(n);
+  for (let k = 0; k < n; k++) {
+    t[k] = pts[k].timeSec;
+    g[k] = pts[k].gainDb;
+    a[k] = Math.pow(10, g[k] / 20);
+  }
+  const keep = new Uint8Array(n);
+  keep[0] = 1;
+  keep[n - 1] = 1;
+  for (let k = 1; k < n - 1; k++) if (g[k] === g[k - 1] || g[k] === g[k + 1]) keep[k] = 1;
+
+  const stack: number[] = [];
+  let start = 0;
+  for (let k = 1; k < n; k++) {
+    if (!keep[k]) continue;
+    if (k - start > 1) stack.push(start, k);
+    while (stack.length) {
+      const j = stack.pop()!;
+      const i = stack.pop()!;
+      const span = t[j] - t[i];
+      let worst = -1;
+      let worstErr = 1;
+      for (let m = i + 1; m < j; m++) {
+        if (g[m] <= ignoreBelow) continue;
+        const u = span > 0 ? (t[m] - t[i]) / span : 0;
+        const eDb = Math.abs(g[i] + (g[j] - g[i]) * u - g[m]) / tol;
+        const r = (a[i] + (a[j] - a[i]) * u) / a[m];
+        const eAmp = ((r > 1 ? r : 1 / r) - 1) / (ratioTol - 1);
+        const e = eDb > eAmp ? eDb : eAmp;
+        if (e > worstErr) {
+          worstErr = e;
+          worst = m;
+        }
+      }
+      if (worst > 0) {
+        keep[worst] = 1;
+        if (worst - i > 1) stack.push(i, worst);
+        if (j - worst > 1) stack.push(worst, j);
+      }
+    }
+    start = k;
+  }
+  const out: GainPoint[] = [];
+  for (let k = 0; k < n; k++) if (keep[k]) out.push({ timeSec: t[k], gainDb: g[k] });
+  // Middle points of flat runs carry nothing.
+  const slim: GainPoint[] = [];
+  for (let k = 0; k < out.length; k++) {
+    const s = slim.length;
+    if (s >= 2 && slim[s - 1].gainDb === out[k].gainDb && slim[s - 2].gainDb === out[k].gainDb) slim[s - 1] = out[k];
+    else slim.push(out[k]);
+  }
+  return { ...curve, points: slim };
+}

@@ -1,0 +1,199 @@
+import type { GainCurve } from '../dsp/gain-curve';
+import { midiExportOptionsSchema, type MidiExportOptionsInput } from '../schemas/export-options';
+import { secondsToTicks } from './bar-beat';
+import { encodeVlq } from './vlq';
+
+/**
+ * Gain → 7-bit controller value: v = round(127 · 10^(G/40)), 0 at or below the
+ * floor. Source: MIDI-CI Profile "Default Control Change Mapping" v1.0
+ * (AMEI/MMA M2-113-UM), Appendix B, and General MIDI 2 (gain_dB = 40·log10(v/127));
+ * REFERENCES.md "MIDI": 0 dB → 127, −6 dB → 90, −12 dB → 64.
+ */
+export function gainDbToCc7(gainDb: number, floorDb = -Infinity): number {
+  if (gainDb <= floorDb) return 0;
+  return Math.max(0, Math.min(127, Math.round(127 * Math.pow(10, gainDb / 40))));
+}
+
+/** 7-bit value → gain dB: 40·log10(v/127); 0 → −Infinity (silence). Same source as `gainDbToCc7`. */
+export function cc7ToGainDb(value: number): number {
+  return value > 0 ? 40 * Math.log10(value / 127) : -Infinity;
+}
+
+/**
+ * Gain → 14-bit value v14 = round(16383 · 10^(G/40)), 0 at or below the floor.
+ * No source defines a 14-bit gain curve: this extension of the GM2 curve to
+ * 16383 is our choice (REFERENCES.md "14-bit controllers"; 8192 → −12.04 dB).
+ */
+export function gainDbToCc14(gainDb: number, floorDb = -Infinity): number {
+  if (gainDb <= floorDb) return 0;
+  return Math.max(0, Math.min(16383, Math.round(16383 * Math.pow(10, gainDb / 40))));
+}
+
+/** 14-bit value → gain dB: 40·log10(v14/16383) (our choice, see `gainDbToCc14`). */
+export function cc14ToGainDb(value: number): number {
+  return value > 0 ? 40 * Math.log10(value / 16383) : -Infinity;
+}
+
+/** One event of a track at an absolute tick; `rank` orders events within a tick. */
+interface TrackEvent {
+  tick: number;
+  rank: number;
+  bytes: number[];
+}
+
+// One small encoder per event kind (Standard MIDI File 1.0, MMA RP-001).
+function utf8(text: string): number[] {
+  const out: number[] = [];
+  for (const ch of text) {
+    const c = ch.codePointAt(0)!;
+    if (c < 0x80) out.push(c);
+    else if (c < 0x800) out.push(0xc0 | (c >> 6), 0x80 | (c & 63));
+    else if (c < 0x10000) out.push(0xe0 | (c >> 12), 0x80 | ((c >> 6) & 63), 0x80 | (c & 63));
+    else out.push(0xf0 | (c >> 18), 0x80 | ((c >> 12) & 63), 0x80 | ((c >> 6) & 63), 0x80 | (c & 63));
+  }
+  return out;
+}
+/** FF 03 len text: sequence/track name. */
+function trackName(name: string): TrackEvent {
+  const text = utf8(name);
+  return { tick: 0, rank: 0, bytes: [0xff, 0x03, ...encodeVlq(text.length), ...text] };
+}
+/** FF 51 03 tttttt: µs per quarter note = round(60 000 000 / bpm) (120 BPM → 500000 = 07 A1 20). */
+function tempo(bpm: number): TrackEvent {
+  const us = Math.round(60_000_000 / bpm);
+  return { tick: 0, rank: 1, bytes: [0xff, 0x51, 0x03, (us >> 16) & 0xff, (us >> 8) & 0xff, us & 0xff] };
+}
+/** FF 58 04 nn dd cc bb: numerator, log2(denominator), 24 MIDI clocks per click, 8 32nds per quarter. */
+function timeSignature(num: number, den: number): TrackEvent {
+  return { tick: 0, rank: 2, bytes: [0xff, 0x58, 0x04, num, Math.round(Math.log2(den)), 24, 8] };
+}
+/** Bn cc vv: control change, channel 1–16. */
+function controlChange(tick: number, channel: number, controller: number, value: number, rank = 3): TrackEvent {
+  return { tick, rank, bytes: [0xb0 | (channel - 1), controller, value] };
+}
+/** 9n kk vv: note on. */
+function noteOn(tick: number, channel: number, key: number, velocity: number): TrackEvent {
+  return { tick, rank: 4, bytes: [0x90 | (channel - 1), key, velocity] };
+}
+/** 8n kk 40: note off (release velocity 64). Ranked before note-ons at the same tick. */
+function noteOff(tick: number, channel: number, key: number): TrackEvent {
+  return { tick, rank: 3, bytes: [0x80 | (channel - 1), key, 0x40] };
+}
+
+/** Sorts by absolute tick (stable, then rank), writes delta ticks, ends with FF 2F 00. */
+function encodeTrack(events: TrackEvent[]): number[] {
+  const sorted = events.map((e, i) => ({ e, i })).sort((x, y) => x.e.tick - y.e.tick || x.e.rank - y.e.rank || x.i - y.i);
+  const data: number[] = [];
+  let now = 0;
+  for (const { e } of sorted) {
+    data.push(...encodeVlq(e.tick - now), ...e.bytes);
+    now = e.tick;
+  }
+  data.push(0x00, 0xff, 0x2f, 0x00);
+  return [0x4d, 0x54, 0x72, 0x6b, ...u32(data.length), ...data];
+}
+
+function u32(v: number): number[] {
+  return [(v >>> 24) & 0xff, (v >>> 16) & 0xff, (v >>> 8) & 0xff, v & 0xff];
+}
+
+/** One lane of the file: a named track of controller changes. */
+export interface MidiLane {
+  name: string;
+  curve: GainCurve;
+}
+
+export interface MidiMarker {
+  timeSec: number;
+  /** 0..1 → velocity round(127·strength), at least 1. */
+  strength?: number;
+}
+
+/** GM1 percussion: 36 = bass drum 1, channel 10 (REFERENCES.md "General MIDI percussion map"). */
+const MARKER_KEY = 36;
+const MARKER_CHANNEL = 10;
+
+/**
+ * The controller stream of a curve on the tick grid: the value at tick 0, then
+ * at every tick inside a changing segment, kept only when it differs from the
+ * last one written (no repeated values). Values through `toValue`.
+ */
+export function ccStream(curve: GainCurve, bpm: number, ppq: number, toValue: (gainDb: number) => number): { tick: number; value: number }[] {
+  const p = curve.points;
+  const out: { tick: number; value: number }[] = [];
+  if (p.length === 0) return out;
+  const secPerTick = 60 / (bpm * ppq);
+  let last = toValue(p[0].gainDb);
+  out.push({ tick: 0, value: last });
+  for (let i = 0; i + 1 < p.length; i++) {
+    const a = p[i];
+    const b = p[i + 1];
+    if (a.gainDb === b.gainDb) continue;
+    const k0 = Math.max(0, secondsToTicks(a.timeSec, bpm, ppq));
+    const k1 = secondsToTicks(b.timeSec, bpm, ppq);
+    const span = b.timeSec - a.timeSec;
+    for (let k = Math.max(k0, 1); k <= k1; k++) {
+      const t = Math.min(b.timeSec, Math.max(a.timeSec, k * secPerTick));
+      const g = span > 0 ? a.gainDb + ((b.gainDb - a.gainDb) * (t - a.timeSec)) / span : b.gainDb;
+      const v = toValue(g);
+      if (v === last) continue;
+      const prev = out[out.length - 1];
+      if (prev.tick === k) prev.value = v;
+      else out.push({ tick: k, value: v });
+      last = v;
+    }
+  }
+  return out;
+}
+
+/**
+ * Writes a Standard MIDI File, type 1 (MMA RP-001): division = ppq ticks per
+ * quarter; track 1 holds the name, tempo (FF 51) and time signature (FF 58);
+ * then one track per lane, named after it, with control changes on `cc` and
+ * `channel`; then, with `markerTrack`, a track with a note (GM 36, channel 10,
+ * a 32nd note long) at each hit. tick = round(seconds × bpm/60 × ppq).
+ * 14-bit: MSB on CC n, LSB on CC n+32, the LSB after its MSB (setting the MSB
+ * resets the LSB, MIDI 1.0), only the LSB when only it changes.
+ */
+export function writeMidiCc(lanes: readonly MidiLane[], options: MidiExportOptionsInput = {}, hits: readonly MidiMarker[] = [], title = 'Tuckline'): Uint8Array {
+  const o = midiExportOptionsSchema.parse(options);
+  const tracks: number[][] = [];
+  tracks.push(encodeTrack([trackName(title), tempo(o.bpm), timeSignature(o.timeSignature[0], o.timeSignature[1])]));
+  for (const lane of lanes) {
+    const floor = lane.curve.floorDb ?? -Infinity;
+    const events: TrackEvent[] = [trackName(lane.name)];
+    if (o.fourteenBit) {
+      let lastMsb = -1;
+      for (const { tick, value } of ccStream(lane.curve, o.bpm, o.ppq, (g) => gainDbToCc14(g, floor))) {
+        const msb = value >> 7;
+        if (msb !== lastMsb) events.push(controlChange(tick, o.channel, o.cc, msb, 3));
+        events.push(controlChange(tick, o.channel, o.cc + 32, value & 0x7f, 4));
+        lastMsb = msb;
+      }
+    } else {
+      for (const { tick, value } of ccStream(lane.curve, o.bpm, o.ppq, (g) => gainDbToCc7(g, floor))) events.push(controlChange(tick, o.channel, o.cc, value));
+    }
+    tracks.push(encodeTrack(events));
+  }
+  if (o.markerTrack) {
+    const events: TrackEvent[] = [trackName('Kick hits')];
+    const len = Math.max(1, Math.round(o.ppq / 8));
+    for (const h of hits) {
+      const tick = Math.max(0, secondsToTicks(h.timeSec, o.bpm, o.ppq));
+      const velocity = Math.max(1, Math.min(127, Math.round(127 * (h.strength ?? 1))));
+      events.push(noteOn(tick, MARKER_CHANNEL, MARKER_KEY, velocity), noteOff(tick + len, MARKER_CHANNEL, MARKER_KEY));
+    }
+    tracks.push(encodeTrack(events));
+  }
+  const header = [0x4d, 0x54, 0x68, 0x64, 0, 0, 0, 6, 0, 1, (tracks.length >> 8) & 0xff, tracks.length & 0xff, (o.ppq >> 8) & 0x7f, o.ppq & 0xff];
+  let size = header.length;
+  for (const t of tracks) size += t.length;
+  const bytes = new Uint8Array(size);
+  bytes.set(header, 0);
+  let at = header.length;
+  for (const t of tracks) {
+    bytes.set(t, at);
+    at += t.length;
+  }
+  return bytes;
+}
