@@ -1,7 +1,7 @@
 import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import cookieParser from 'cookie-parser';
-import express, { Router } from 'express';
+import express, { Router, type RequestHandler } from 'express';
 import helmet from 'helmet';
 import { pino } from 'pino';
 import { pinoHttp } from 'pino-http';
@@ -17,6 +17,19 @@ import { songsRoutes } from './songs/songs.routes';
 import { createTeamsRepository } from './teams/teams.repository';
 import { teamsRoutes } from './teams/teams.routes';
 import { createUsersRepository } from './users/users.repository';
+import { createExportsService } from './exports/exports.service';
+import { exportsRoutes } from './exports/exports.routes';
+import { createHitsRepository } from './hits/hits.repository';
+import { createHitsService } from './hits/hits.service';
+import { hitsRoutes } from './hits/hits.routes';
+import { createLanesRepository } from './lanes/lanes.repository';
+import { createLanesService } from './lanes/lanes.service';
+import { lanesRoutes } from './lanes/lanes.routes';
+import { createStemsRepository } from './stems/stems.repository';
+import { createStemsService } from './stems/stems.service';
+import { stemsRoutes } from './stems/stems.routes';
+import { createFileStore } from './storage/file-store';
+import { teamOf } from './http/auth.middleware';
 
 export interface AppDeps {
   db: Database;
@@ -34,6 +47,12 @@ export function createApp(deps: AppDeps) {
   const audit = createAudit(db);
   const songs = createSongsRepository(db);
   const auth = createAuthService({ db, users, teams, audit });
+  const store = createFileStore(config.storageDir);
+  const stemsRepo = createStemsRepository(db);
+  const hitsService = createHitsService({ db, hits: createHitsRepository(db), stems: stemsRepo, store });
+  const stemsService = createStemsService({ db, stems: stemsRepo, store, hits: hitsService });
+  const lanesService = createLanesService({ lanes: createLanesRepository(db), hits: hitsService, stems: stemsService, stemsRepo });
+  const exportsService = createExportsService({ db, store, songs, lanes: lanesService });
   const tokens = { secret: config.jwtSecret, hours: config.sessionHours, secureCookie: config.publicUrl.startsWith('https:') };
 
   const app = express();
@@ -78,6 +97,15 @@ export function createApp(deps: AppDeps) {
   api.use('/auth', authRoutes({ auth, tokens, session, signInLimit: deps.signInLimit ?? 20 }));
 
   const teamScoped = Router({ mergeParams: true });
+  // Every route under a song checks first that the song belongs to the caller's team (404 otherwise).
+  const song: RequestHandler = async (req, _res, next) => {
+    await songs.get(teamOf(req).teamId, String(req.params['songId']));
+    next();
+  };
+  teamScoped.use('/songs/:songId/stems', stemsRoutes({ stems: stemsService, store, maxUploadBytes: config.maxUploadBytes, song, audit }));
+  teamScoped.use('/songs/:songId/hits', hitsRoutes({ hits: hitsService, song }));
+  teamScoped.use('/songs/:songId/lanes', lanesRoutes({ lanes: lanesService, song }));
+  teamScoped.use('/songs/:songId/exports', exportsRoutes({ exports: exportsService, song, audit }));
   teamScoped.use('/songs', songsRoutes({ songs }));
 
   api.use('/teams', session, teamsRoutes({ teams, audit, team, features: teamScoped }));
