@@ -7,6 +7,7 @@ import { startCluster, type Cluster } from './db/cluster';
 import { migrateDatabase } from './db/migrate';
 import { demoPassword, demoPeople } from './seed/demo-scenario';
 import { seedDemo } from './seed/seed-demo';
+import { createFileStore } from './storage/file-store';
 
 const say = (line: string) => process.stdout.write(`[tuckline] ${line}\n`);
 
@@ -24,7 +25,7 @@ async function main() {
   await migrateDatabase(db);
   say('Database migrated.');
   if (seed) {
-    const result = await seedDemo(db);
+    const result = await seedDemo(db, createFileStore(config.storageDir));
     say(result.created ? 'Demo data seeded.' : 'Demo data already present.');
   }
 

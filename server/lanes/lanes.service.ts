@@ -1,5 +1,6 @@
 import { stampForLane, RENDER_RAMP_TOLERANCE_DB } from '../engine/engine.service';
-import type { LaneCreate, LanePatch } from '../../shared/schemas/lane';
+import type { z } from 'zod';
+import type { laneCreateSchema, LanePatch } from '../../shared/schemas/lane';
 import type { HitsService } from '../hits/hits.service';
 import { unprocessable } from '../http/errors';
 import type { StemsRepository } from '../stems/stems.repository';
@@ -50,9 +51,9 @@ export function createLanesService(deps: { lanes: LanesRepository; hits: HitsSer
     async get(songId: string, laneId: string) {
       return toLaneDto(await lanes.get(songId, laneId));
     },
-    async create(songId: string, input: LaneCreate & { shape: unknown }) {
+    async create(songId: string, input: z.output<typeof laneCreateSchema>) {
       await checkSlot(songId, input.bassSlot);
-      return toLaneDto(await lanes.create(songId, input as LaneCreate & { name: string; shape: unknown }));
+      return toLaneDto(await lanes.create(songId, input));
     },
     async update(songId: string, laneId: string, patch: LanePatch) {
       const { revision, ...values } = patch;

@@ -1,6 +1,7 @@
 import { createServer } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { seedDemo } from '../../server/seed/seed-demo';
+import { createFileStore } from '../../server/storage/file-store';
 import { createTestContext, type TestContext } from './test-app';
 
 export interface AppServer {
@@ -15,7 +16,7 @@ export interface AppServer {
  */
 export async function startAppServer(): Promise<AppServer> {
   const ctx = await createTestContext();
-  await seedDemo(ctx.db);
+  await seedDemo(ctx.db, createFileStore(ctx.config.storageDir));
   const server = createServer(ctx.app);
   await new Promise<void>((resolve) => server.listen(0, '127.0.0.1', resolve));
   const { port } = server.address() as AddressInfo;
