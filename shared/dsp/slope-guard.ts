@@ -38,6 +38,17 @@ export const DEFAULT_RAMP_TOLERANCE_DB = 0.05;
  */
 export const LINEAR_CORNER_FRACTION = 0.25;
 
+/**
+ * Eases are made this much longer than the caps' minimum, so that a render,
+ * which reads straight-in-dB pieces between the ease's samples, stays under
+ * the amplitude cap too: a piece of ΔG dB overshoots the ease's amplitude
+ * slope at its top end by about K·ΔG/2, and render-precision pieces are kept
+ * at most `RENDER_MAX_PIECE_DB` high (K·0.3/2 ≈ 1.7 %). Our choice.
+ */
+export const GUARD_MARGIN = 1.02;
+/** Highest straight-in-dB piece when sampling at render precision (tolerance ≤ 0.01 dB), dB. */
+export const RENDER_MAX_PIECE_DB = 0.3;
+
 /** dB → amplitude slope factor: d(10^(G/20))/dG = a·ln(10)/20. */
 const K = Math.LN10 / 20;
 
@@ -108,12 +119,12 @@ export function easeDb(g0: number, g1: number, u: number, caps: Pick<SlopeCaps, 
 
 /**
  * Shortest duration, ms, an ease from g0 to g1 dB may take under both caps:
- * T = π·|y(g1) − y(g0)| / (2·capNeper), capNeper = capDb·ln10/20 (the ease's
- * peak dy/dt is π·Δy/(2T)). Known by construction.
+ * T = GUARD_MARGIN · π·|y(g1) − y(g0)| / (2·capNeper), capNeper = capDb·ln10/20
+ * (the ease's peak dy/dt is π·Δy/(2T)). Known by construction.
  */
 export function minEaseMs(g0: number, g1: number, caps: SlopeCaps): number {
   if (g0 === g1) return 0;
-  return (Math.PI * Math.abs(warp(g1, caps.crossover) - warp(g0, caps.crossover))) / (2 * caps.dbPerMs * K);
+  return (GUARD_MARGIN * Math.PI * Math.abs(warp(g1, caps.crossover) - warp(g0, caps.crossover))) / (2 * caps.dbPerMs * K);
 }
 
 function valueOnSegment(a: GuardedPoint, b: GuardedPoint, tMs: number, caps: SlopeCaps): number {
@@ -195,16 +206,19 @@ export function guardShape(shape: TuckShape, opts: GuardOptions = {}): GuardedPo
  * Samples one ease into straight-in-dB pieces by bisection in u until each
  * chord is within `tolDb` of the ease at its midpoint and quarter points
  * (the ease is smooth and monotone, so that bounds the chord error; known by
- * construction). Pushes the interior and end points, not the start.
+ * construction), and at render precision until each piece is at most
+ * `RENDER_MAX_PIECE_DB` high. Pushes the interior and end points, not the start.
  */
 function sampleEase(a: GuardedPoint, b: GuardedPoint, caps: SlopeCaps, tolDb: number, t: number[], g: number[]): void {
   const f = (u: number) => easeDb(a.gainDb, b.gainDb, u, caps);
+  const maxPieceDb = tolDb <= 0.01 ? RENDER_MAX_PIECE_DB : Infinity;
   const rec = (u0: number, g0: number, u1: number, g1: number, depth: number) => {
     const um = (u0 + u1) / 2;
     const gm = f(um);
     const ok =
-      depth >= 12 ||
-      (Math.abs(gm - (g0 + g1) / 2) <= tolDb &&
+      depth >= 14 ||
+      (Math.abs(g1 - g0) <= maxPieceDb &&
+        Math.abs(gm - (g0 + g1) / 2) <= tolDb &&
         Math.abs(f((u0 + um) / 2) - (3 * g0 + g1) / 4) <= tolDb &&
         Math.abs(f((um + u1) / 2) - (g0 + 3 * g1) / 4) <= tolDb);
     if (ok && depth >= 1) {
