@@ -114,33 +114,39 @@ const MARKER_KEY = 36;
 const MARKER_CHANNEL = 10;
 
 /**
- * The controller stream of a curve on the tick grid: the value at tick 0, then
- * at every tick inside a changing segment, kept only when it differs from the
- * last one written (no repeated values). Values through `toValue`.
+ * The controller stream of a curve on the tick grid: the value at tick 0,
+ * then the curve's value at every tick (time = tick·60/(bpm·ppq)) where it
+ * changes, kept only when it differs from the last one written (no repeated
+ * values). Flat stretches cost one evaluation. Values through `toValue`.
  */
 export function ccStream(curve: GainCurve, bpm: number, ppq: number, toValue: (gainDb: number) => number): { tick: number; value: number }[] {
   const p = curve.points;
   const out: { tick: number; value: number }[] = [];
   if (p.length === 0) return out;
-  const secPerTick = 60 / (bpm * ppq);
+  const ticksPerSec = (bpm * ppq) / 60;
   let last = toValue(p[0].gainDb);
   out.push({ tick: 0, value: last });
+  const emit = (tick: number, value: number) => {
+    if (value === last) return;
+    const prev = out[out.length - 1];
+    if (prev.tick === tick) prev.value = value;
+    else out.push({ tick, value });
+    last = value;
+  };
   for (let i = 0; i + 1 < p.length; i++) {
     const a = p[i];
     const b = p[i + 1];
-    if (a.gainDb === b.gainDb) continue;
-    const k0 = Math.max(0, secondsToTicks(a.timeSec, bpm, ppq));
-    const k1 = secondsToTicks(b.timeSec, bpm, ppq);
+    const kStart = Math.max(1, Math.ceil(a.timeSec * ticksPerSec - 1e-9));
+    const kEnd = Math.floor(b.timeSec * ticksPerSec + 1e-9);
+    if (kStart > kEnd) continue;
+    if (a.gainDb === b.gainDb) {
+      emit(kStart, toValue(a.gainDb));
+      continue;
+    }
     const span = b.timeSec - a.timeSec;
-    for (let k = Math.max(k0, 1); k <= k1; k++) {
-      const t = Math.min(b.timeSec, Math.max(a.timeSec, k * secPerTick));
-      const g = span > 0 ? a.gainDb + ((b.gainDb - a.gainDb) * (t - a.timeSec)) / span : b.gainDb;
-      const v = toValue(g);
-      if (v === last) continue;
-      const prev = out[out.length - 1];
-      if (prev.tick === k) prev.value = v;
-      else out.push({ tick: k, value: v });
-      last = v;
+    for (let k = kStart; k <= kEnd; k++) {
+      const u = Math.min(1, Math.max(0, (k / ticksPerSec - a.timeSec) / span));
+      emit(k, toValue(a.gainDb + (b.gainDb - a.gainDb) * u));
     }
   }
   return out;

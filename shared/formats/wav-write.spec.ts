@@ -15,7 +15,7 @@ describe('encodeWav', () => {
     [64, 'float'],
   ] as const)('round-trips %i-bit %s through wav-decoder (an independent reader) within one LSB', (bitDepth, sampleFormat) => {
     const bytes = encodeWav([x, x.map((v) => -v / 2)], { sampleRate: 44100, bitDepth, sampleFormat });
-    const decoded = WavDecoder.decode.sync(bytes.buffer);
+    const decoded = WavDecoder.decode.sync(bytes.buffer as ArrayBuffer);
     expect(decoded.sampleRate).toBe(44100);
     expect(decoded.channelData).toHaveLength(2);
     const lsb = sampleFormat === 'float' ? 1e-7 : 1 / Math.pow(2, bitDepth - 1);
