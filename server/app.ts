@@ -29,11 +29,26 @@ import { createStemsRepository } from './stems/stems.repository';
 import { createStemsService } from './stems/stems.service';
 import { stemsRoutes } from './stems/stems.routes';
 import { createFileStore } from './storage/file-store';
+import { createPresetsRepository } from './presets/presets.repository';
+import { presetsRoutes } from './presets/presets.routes';
+import { auditRoutes } from './audit/audit.routes';
+import { createPasswordResetService } from './auth/password-reset.service';
+import { createInvitationsService } from './invitations/invitations.service';
+import { publicInvitationsRoutes, teamInvitationsRoutes } from './invitations/invitations.routes';
+import { devInboxRoutes } from './mail/dev-inbox.routes';
+import type { FakeSmtp } from './mail/fake-smtp';
+import { createMailer, type Mailer } from './mail/mailer';
 import { teamOf } from './http/auth.middleware';
 
 export interface AppDeps {
   db: Database;
   config: AppConfig;
+  /** Outgoing mail; `main.ts` passes nodemailer over SMTP_URL or over the local fake. */
+  mailer?: Mailer;
+  /** The local SMTP fake, when running: its messages are readable at /dev/mail. */
+  fakeSmtp?: FakeSmtp;
+  /** Password reset requests per address and e-mail per 15 minutes. */
+  resetLimit?: number;
   /** Sign-in attempts per address and e-mail per 15 minutes. */
   signInLimit?: number;
 }
@@ -47,11 +62,15 @@ export function createApp(deps: AppDeps) {
   const audit = createAudit(db);
   const songs = createSongsRepository(db);
   const auth = createAuthService({ db, users, teams, audit });
+  const mailer = deps.mailer ?? createMailer(config.smtpUrl ?? 'smtp://127.0.0.1:2525', config.mailFrom);
+  const resets = createPasswordResetService({ db, users, mailer, publicUrl: config.publicUrl, audit });
+  const invitations = createInvitationsService({ db, mailer, publicUrl: config.publicUrl, teams, users, audit });
   const store = createFileStore(config.storageDir);
   const stemsRepo = createStemsRepository(db);
   const hitsService = createHitsService({ db, hits: createHitsRepository(db), stems: stemsRepo, store });
   const stemsService = createStemsService({ db, stems: stemsRepo, store, hits: hitsService });
-  const lanesService = createLanesService({ lanes: createLanesRepository(db), hits: hitsService, stems: stemsService, stemsRepo });
+  const presets = createPresetsRepository(db);
+  const lanesService = createLanesService({ lanes: createLanesRepository(db), hits: hitsService, stems: stemsService, stemsRepo, presets });
   const exportsService = createExportsService({ db, store, songs, lanes: lanesService });
   const tokens = { secret: config.jwtSecret, hours: config.sessionHours, secureCookie: config.publicUrl.startsWith('https:') };
 
@@ -94,7 +113,8 @@ export function createApp(deps: AppDeps) {
     await db.execute('select 1');
     res.json({ ok: true });
   });
-  api.use('/auth', authRoutes({ auth, tokens, session, signInLimit: deps.signInLimit ?? 20 }));
+  api.use('/auth', authRoutes({ auth, resets, tokens, session, signInLimit: deps.signInLimit ?? 20, resetLimit: deps.resetLimit ?? 5 }));
+  api.use('/invitations', publicInvitationsRoutes({ invitations, auth, users, tokens }));
 
   const teamScoped = Router({ mergeParams: true });
   // Every route under a song checks first that the song belongs to the caller's team (404 otherwise).
@@ -107,11 +127,15 @@ export function createApp(deps: AppDeps) {
   teamScoped.use('/songs/:songId/lanes', lanesRoutes({ lanes: lanesService, song }));
   teamScoped.use('/songs/:songId/exports', exportsRoutes({ exports: exportsService, song, audit }));
   teamScoped.use('/songs', songsRoutes({ songs }));
+  teamScoped.use('/invitations', teamInvitationsRoutes({ invitations }));
+  teamScoped.use('/audit', auditRoutes({ db }));
+  teamScoped.use('/presets', presetsRoutes({ presets, lanes: lanesService, songs, audit }));
 
   api.use('/teams', session, teamsRoutes({ teams, audit, team, features: teamScoped }));
   api.use(notFoundMiddleware);
   api.use(errorMiddleware);
   app.use('/api', api);
+  if (deps.fakeSmtp && !config.production) app.use('/dev/mail', devInboxRoutes(deps.fakeSmtp));
 
   // The built Angular app; every other path falls back to index.html for the client router.
   if (existsSync(join(config.webRoot, 'index.html'))) {

@@ -8,6 +8,8 @@ import { migrateDatabase } from './db/migrate';
 import { demoPassword, demoPeople } from './seed/demo-scenario';
 import { seedDemo } from './seed/seed-demo';
 import { createFileStore } from './storage/file-store';
+import { startFakeSmtp } from './mail/fake-smtp';
+import { createMailer } from './mail/mailer';
 
 const say = (line: string) => process.stdout.write(`[tuckline] ${line}\n`);
 
@@ -29,13 +31,17 @@ async function main() {
     say(result.created ? 'Demo data seeded.' : 'Demo data already present.');
   }
 
-  const app = createApp({ db, config });
+  // Without a real SMTP server, mail goes to a local fake whose inbox is at /dev/mail.
+  const fakeSmtp = config.smtpUrl ? undefined : await startFakeSmtp();
+  const mailer = createMailer(config.smtpUrl ?? fakeSmtp!.url, config.mailFrom);
+  const app = createApp({ db, config, mailer, fakeSmtp });
   const server = createServer(app);
   await new Promise<void>((resolve, reject) => {
     server.once('error', reject);
     server.listen(config.port, config.host, resolve);
   });
   say(`Tuckline is running at http://${config.host}:${config.port}`);
+  if (fakeSmtp) say(`Mail goes to a local SMTP fake (${fakeSmtp.url}); read it at http://${config.host}:${config.port}/dev/mail`);
   if (seed) {
     say(`Demo sign-ins (password "${demoPassword}"):`);
     for (const p of demoPeople) say(`  ${p.role.padEnd(9)} ${p.email}  (${p.displayName})`);
@@ -48,6 +54,7 @@ async function main() {
     say(`${signal}: shutting down…`);
     server.closeAllConnections();
     await new Promise<void>((resolve) => server.close(() => resolve()));
+    await fakeSmtp?.stop();
     await db.$client.end();
     if (cluster) {
       await cluster.stop();

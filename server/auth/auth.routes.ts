@@ -1,6 +1,8 @@
 import { Router, type RequestHandler } from 'express';
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
 import { signInSchema, signUpSchema } from '../../shared/schemas/auth';
+import { passwordResetConfirmSchema, passwordResetRequestSchema } from '../../shared/schemas/invitation';
+import type { PasswordResetService } from './password-reset.service';
 import { tooManyRequests, unauthorized } from '../http/errors';
 import { body } from '../http/validate';
 import type { AuthService } from './auth.service';
@@ -8,9 +10,11 @@ import { clearSessionCookie, issueToken, setSessionCookie, type TokenSettings } 
 
 export function authRoutes(deps: {
   auth: AuthService;
+  resets: PasswordResetService;
   tokens: TokenSettings;
   session: RequestHandler;
   signInLimit: number;
+  resetLimit: number;
 }): Router {
   const router = Router();
   const { auth, tokens } = deps;
@@ -25,6 +29,30 @@ export function authRoutes(deps: {
     handler: () => {
       throw tooManyRequests();
     },
+  });
+
+  const resetLimiter = rateLimit({
+    windowMs: 15 * 60_000,
+    limit: deps.resetLimit,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${String(req.body?.email ?? '').toLowerCase()}`,
+    handler: () => {
+      throw tooManyRequests();
+    },
+  });
+
+  // No hint whether the address has an account: the same 202 either way.
+  router.post('/password-reset', resetLimiter, async (req, res) => {
+    const { email } = body(req, passwordResetRequestSchema);
+    await deps.resets.request(email);
+    res.status(202).json({ ok: true, message: 'If that address has an account, a reset link is on its way.' });
+  });
+
+  router.post('/password-reset/confirm', async (req, res) => {
+    const { token, password } = body(req, passwordResetConfirmSchema);
+    await deps.resets.confirm(token, password);
+    res.json({ ok: true });
   });
 
   router.post('/sign-up', async (req, res) => {

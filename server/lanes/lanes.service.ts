@@ -1,14 +1,30 @@
 import { stampForLane, RENDER_RAMP_TOLERANCE_DB } from '../engine/engine.service';
 import type { z } from 'zod';
-import type { laneCreateSchema, LanePatch } from '../../shared/schemas/lane';
+import type { laneCreateSchema, LaneDto, LanePatch } from '../../shared/schemas/lane';
+import type { PresetsRepository } from '../presets/presets.repository';
 import type { HitsService } from '../hits/hits.service';
 import { unprocessable } from '../http/errors';
 import type { StemsRepository } from '../stems/stems.repository';
 import type { StemsService } from '../stems/stems.service';
 import { toLaneDto, type LaneRow, type LanesRepository } from './lanes.repository';
 
-export function createLanesService(deps: { lanes: LanesRepository; hits: HitsService; stems: StemsService; stemsRepo: StemsRepository }) {
+export function createLanesService(deps: { lanes: LanesRepository; hits: HitsService; stems: StemsService; stemsRepo: StemsRepository; presets?: PresetsRepository }) {
   const { lanes, hits, stems, stemsRepo } = deps;
+
+  /** Adds the preset's current version, so the client can say when a newer one exists. */
+  async function withPresetVersion(songId: string, teamId: string | undefined, dtos: LaneDto[]): Promise<LaneDto[]> {
+    if (!teamId || !deps.presets) return dtos;
+    const out: LaneDto[] = [];
+    for (const d of dtos) {
+      if (!d.presetId) {
+        out.push(d);
+        continue;
+      }
+      const latest = await deps.presets.get(teamId, d.presetId).catch(() => undefined);
+      out.push({ ...d, presetLatestVersion: latest?.version ?? null, presetName: latest?.name ?? null });
+    }
+    return out;
+  }
 
   async function checkSlot(songId: string, slot: string | null | undefined) {
     if (!slot) return;
@@ -45,11 +61,23 @@ export function createLanesService(deps: { lanes: LanesRepository; hits: HitsSer
   return {
     stamp,
     songDurationSec,
-    async list(songId: string) {
-      return (await lanes.list(songId)).map(toLaneDto);
+    async list(songId: string, teamId?: string) {
+      return withPresetVersion(songId, teamId, (await lanes.list(songId)).map(toLaneDto));
     },
-    async get(songId: string, laneId: string) {
-      return toLaneDto(await lanes.get(songId, laneId));
+    async get(songId: string, laneId: string, teamId?: string) {
+      return (await withPresetVersion(songId, teamId, [toLaneDto(await lanes.get(songId, laneId))]))[0];
+    },
+    /** Copies a published preset's shape and gate threshold onto a lane, remembering which version it came from. */
+    async applyPreset(teamId: string, songId: string, laneId: string, presetId: string, mayUseDrafts: boolean) {
+      if (!deps.presets) throw new Error('presets repository not wired');
+      const preset = await deps.presets.get(teamId, presetId);
+      if (preset.status === 'retired' || (!mayUseDrafts && preset.status !== 'published')) {
+        throw unprocessable('presets.not_published', 'Only published presets can be applied. Ask an engineer to publish it.');
+      }
+      await lanes.get(songId, laneId);
+      const row = await lanes.update(songId, laneId, { shape: preset.shape, gateThresholdDbfs: preset.gateThresholdDbfs, presetId: preset.id, presetVersion: preset.version });
+      await deps.presets.countUse(preset.id);
+      return (await withPresetVersion(songId, teamId, [toLaneDto(row)]))[0];
     },
     async create(songId: string, input: z.output<typeof laneCreateSchema>) {
       await checkSlot(songId, input.bassSlot);

@@ -1,5 +1,6 @@
 import { and, eq } from 'drizzle-orm';
 import { hashPassword } from '../auth/passwords';
+import { insertStarterPresets } from '../presets/presets.repository';
 import type { Database } from '../db/client';
 import { songs } from '../songs/songs.table';
 import { memberships, teams } from '../teams/teams.table';
@@ -47,6 +48,7 @@ export async function seedDemo(db: Database, store?: FileStore): Promise<SeedRes
       await tx.insert(memberships).values({ teamId: team.id, userId: user.id, role: person.role });
       ids.push(user.id);
     }
+    await insertStarterPresets(tx, team.id, ids[0]);
     for (const song of demoSongs) {
       await tx.insert(songs).values({
         teamId: team.id,

@@ -1,8 +1,11 @@
 import { and, asc, count, eq } from 'drizzle-orm';
+import type { z } from 'zod';
+import { teamSettingsSchema, type teamSettingsPatchSchema } from '../../shared/schemas/invitation';
 import type { Role } from '../../shared/schemas/team';
 import type { Database, Executor } from '../db/client';
 import { isUniqueViolation } from '../db/pg-errors';
 import { conflict, notFound } from '../http/errors';
+import { insertStarterPresets } from '../presets/presets.repository';
 import { users } from '../users/users.table';
 import { memberships, teams } from './teams.table';
 
@@ -24,10 +27,34 @@ export function createTeamsRepository(db: Database) {
         .where(and(eq(memberships.teamId, teamId), eq(memberships.userId, userId)));
       return row;
     },
-    async create(name: string, ownerId: string, tx: Executor = db) {
-      const [team] = await tx.insert(teams).values({ name }).returning();
-      await tx.insert(memberships).values({ teamId: team.id, userId: ownerId, role: 'owner' });
-      return { id: team.id, name: team.name, role: 'owner' as const };
+    /** A new team with its owner and the starter presets; pass a transaction so all of it lands or none. */
+    async create(name: string, ownerId: string, tx?: Executor) {
+      const run = async (t: Executor) => {
+        const [team] = await t.insert(teams).values({ name }).returning();
+        await t.insert(memberships).values({ teamId: team.id, userId: ownerId, role: 'owner' });
+        await insertStarterPresets(t, team.id, ownerId);
+        return { id: team.id, name: team.name, role: 'owner' as const };
+      };
+      return tx ? run(tx) : db.transaction(run);
+    },
+    async settings(teamId: string) {
+      const [row] = await db.select({ name: teams.name, settings: teams.settings }).from(teams).where(eq(teams.id, teamId));
+      return { name: row.name, ...teamSettingsSchema.parse(row.settings) };
+    },
+    async saveSettings(teamId: string, patch: z.output<typeof teamSettingsPatchSchema>) {
+      return db.transaction(async (tx) => {
+        const [row] = await tx.select({ settings: teams.settings }).from(teams).where(eq(teams.id, teamId)).for('update');
+        const current = teamSettingsSchema.parse(row.settings);
+        const byGenre = { ...current.defaultPresetByGenre };
+        for (const [genre, id] of Object.entries(patch.defaultPresetByGenre ?? {})) {
+          if (id) byGenre[genre] = id;
+          else delete byGenre[genre];
+        }
+        const next = teamSettingsSchema.parse({ defaultExport: { ...current.defaultExport, ...patch.defaultExport }, defaultPresetByGenre: byGenre });
+        await tx.update(teams).set({ settings: next, ...(patch.name ? { name: patch.name } : {}) }).where(eq(teams.id, teamId));
+        const [after] = await tx.select({ name: teams.name }).from(teams).where(eq(teams.id, teamId));
+        return { name: after.name, ...next };
+      });
     },
     async rename(teamId: string, name: string) {
       await db.update(teams).set({ name }).where(eq(teams.id, teamId));

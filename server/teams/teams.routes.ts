@@ -1,5 +1,6 @@
 import { Router, type RequestHandler } from 'express';
 import { createTeamSchema, updateMemberSchema, updateTeamSchema } from '../../shared/schemas/team';
+import { teamSettingsPatchSchema } from '../../shared/schemas/invitation';
 import type { Audit } from '../audit/audit.service';
 import { requirePermission, teamOf } from '../http/auth.middleware';
 import { unauthorized } from '../http/errors';
@@ -38,6 +39,19 @@ export function teamsRoutes(deps: { teams: TeamsRepository; audit: Audit; team: 
     await teams.rename(teamId, name);
     await audit.record({ teamId, actorId: userId, action: 'team.renamed', details: { name } });
     res.json(await teams.membership(teamId, userId));
+  });
+
+  one.get('/settings', async (req, res) => {
+    const { teamId } = teamOf(req);
+    res.json(await teams.settings(teamId));
+  });
+
+  one.patch('/settings', requirePermission('manageTeam'), async (req, res) => {
+    const { teamId, userId } = teamOf(req);
+    const patch = body(req, teamSettingsPatchSchema);
+    const saved = await teams.saveSettings(teamId, patch);
+    await audit.record({ teamId, actorId: userId, action: 'team.settings_changed', details: patch as Record<string, unknown> });
+    res.json(saved);
   });
 
   one.get('/members', async (req, res) => {

@@ -54,6 +54,9 @@ export interface LaneDto {
   muted: boolean;
   presetId: string | null;
   presetVersion: number | null;
+  /** The preset's current version (a newer one than `presetVersion` exists when they differ). */
+  presetLatestVersion?: number | null;
+  presetName?: string | null;
   revision: number;
   updatedAt: string;
 }

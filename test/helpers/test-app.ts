@@ -8,9 +8,13 @@ import { createApp, type AppDeps } from '../../server/app';
 import { loadConfig, type AppConfig } from '../../server/config/env';
 import { createDatabase, type Database } from '../../server/db/client';
 import { ensureDatabase } from '../../server/db/cluster';
+import { startFakeSmtp, type FakeSmtp } from '../../server/mail/fake-smtp';
+import { createMailer } from '../../server/mail/mailer';
 
 export interface TestContext {
   db: Database;
+  /** The local SMTP fake this app sends through. */
+  mail: FakeSmtp;
   config: AppConfig;
   app: ReturnType<typeof createApp>;
   databaseUrl: string;
@@ -27,14 +31,17 @@ export async function createTestContext(overrides: Partial<AppDeps> & { config?:
   const base = loadConfig({ TUCKLINE_DATA_DIR: dataDir, JWT_SECRET: 'test-secret-'.padEnd(48, 'x'), LOG_LEVEL: 'silent', DATABASE_URL: databaseUrl });
   const config = { ...base, ...overrides.config };
   const db = createDatabase(databaseUrl);
-  const app = createApp({ db, config, signInLimit: overrides.signInLimit ?? 1000 });
+  const mail = await startFakeSmtp();
+  const app = createApp({ db, config, signInLimit: overrides.signInLimit ?? 1000, resetLimit: overrides.resetLimit ?? 1000, mailer: createMailer(mail.url, config.mailFrom), fakeSmtp: mail });
   return {
     db,
+    mail,
     config,
     app,
     databaseUrl,
     async close() {
       await db.$client.end();
+      await mail.stop();
       rmSync(dataDir, { recursive: true, force: true });
     },
   };
