@@ -1,8 +1,8 @@
 import { open, readFile, stat } from 'node:fs/promises';
 import { detectionOptionsSchema, type DetectionOptions, type Hit, type MidiKickOptions } from '../../shared/schemas/hit';
-import { detectOnsetsInBands } from '../../shared/dsp/onsets';
+import { detectOnsetsWithLowBand } from '../../shared/dsp/onsets';
 import { mixdownInto } from '../../shared/dsp/mixdown';
-import { biquadLowpassCascade, cascadeState, processCascadeInPlace } from '../../shared/dsp/biquad';
+import { createLowBandBuilder, finishLowBand, pushLowBand } from '../../shared/dsp/low-band';
 import { MidiFormatError, readMidiKicks } from '../../shared/formats/midi-read';
 import { sniffNonWav } from '../../shared/formats/wav-header';
 import { AudioInputError } from './audio-errors';
@@ -23,8 +23,6 @@ export interface DetectKickOptions {
   midi?: Partial<MidiKickOptions>;
 }
 
-/** Order of the low band filtered while decoding (as shared/dsp/onsets.ts). */
-const LOW_BAND_ORDER = 4;
 /** MIDI files above this are refused before reading (an SMF of a song is kilobytes). */
 const MIDI_MAX_BYTES = 16 << 20;
 
@@ -58,17 +56,14 @@ export async function detectKickFile(path: string, opts: DetectKickOptions = {})
   try {
     const { frames, sampleRate } = wav.info;
     const mono = new Float32Array(frames);
-    const low = new Float32Array(frames);
-    const cascade = biquadLowpassCascade(detection.lowBandHz, sampleRate, LOW_BAND_ORDER);
-    const state = cascadeState(cascade);
+    const band = createLowBandBuilder(sampleRate, frames, detection.lowBandHz);
     await wav.forEachBlock((block, first) => {
-      const n = block[0]!.length;
+      const monoBlock = mono.subarray(first, first + block[0]!.length);
       mixdownInto(block, mono, first);
-      const lowBlock = low.subarray(first, first + n);
-      lowBlock.set(mono.subarray(first, first + n));
-      processCascadeInPlace(cascade, state, lowBlock);
+      pushLowBand(band, monoBlock);
     });
-    return { source: 'audio', sampleRate, durationSec: wav.info.durationSec, hits: detectOnsetsInBands(mono, low, sampleRate, detection) };
+    const hits = detectOnsetsWithLowBand(mono, finishLowBand(band), sampleRate, detection);
+    return { source: 'audio', sampleRate, durationSec: wav.info.durationSec, hits };
   } finally {
     await wav.close();
   }

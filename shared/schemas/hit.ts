@@ -22,14 +22,15 @@ export type Hit = z.infer<typeof hitSchema>;
  *   −30 dB below the loudest (ghost notes 20 dB down are kept) — our choice.
  * - minGapMs: two onsets closer than this are one hit. 50 ms keeps 1/32 notes
  *   at 150 BPM apart (60 / 150 / 8 = 50 ms).
- * - lowBandHz: cut-off of the low band the kick is detected in. Kick
+ * - lowBandHz: edge of the low band the kick is detected in (8th-order
+ *   Butterworth; 120 Hz puts a snare body at ~190 Hz 30 dB down). Kick
  *   fundamentals sit at about 40–60 Hz, the body's sweep starts higher
  *   (common practice, no source; REFERENCES.md "Ranges").
  */
 export const detectionOptionsSchema = z.object({
   sensitivity: z.number().min(0).max(1).default(0.5),
   minGapMs: z.number().min(5).max(1000).default(50),
-  lowBandHz: z.number().min(40).max(400).default(150),
+  lowBandHz: z.number().min(40).max(400).default(120),
 });
 export type DetectionOptions = z.infer<typeof detectionOptionsSchema>;
 

@@ -1,0 +1,185 @@
+import { detectionOptionsSchema, type DetectionOptions, type Hit } from '../schemas/hit';
+import { lowBandOf, type LowBand } from './low-band';
+import { predictionOnsetFunction } from './onset-function';
+import { pickPeaks } from './peak-pick';
+import { arAicChangePoint, refineOnsetSample } from './onset-refine';
+import { energyJumpDb, newHighBandDb, sustainDb } from './hit-evidence';
+
+/** Knobs the sensitivity sets, derived in one place so the docs can quote them. */
+export interface DetectionThresholds {
+  /** δ: least rise of the low band's prediction error counted as a candidate, dB. */
+  minRiseDb: number;
+  /** A hit's new low-band energy must be within this many dB of a typical loud hit's. */
+  floorBelowLoudestDb: number;
+}
+
+/**
+ * sensitivity s ∈ [0, 1] → δ = 16 − 12·s dB and floor = 15 + 30·s dB
+ * (s = 0.5: 10 dB and 30 dB; ghost notes 20 dB down pass). Our choice,
+ * tuned on the synthetic stems of test/reference; no source.
+ */
+export function detectionThresholds(sensitivity: number): DetectionThresholds {
+  return { minRiseDb: 16 - 12 * sensitivity, floorBelowLoudestDb: 15 + 30 * sensitivity };
+}
+
+/**
+ * Every fixed constant of the detector, seconds and dB. Our choices, tuned on
+ * the synthetic stems of test/reference (no source) unless noted.
+ */
+export const DETECTION_TUNING = {
+  /** Onset-function grid and windows (shared/dsp/onset-function.ts). */
+  hopSec: 0.001,
+  fitSec: 0.02,
+  scoreSec: 0.01,
+  /** λ of the moving-median threshold δ + λ·median (Bello et al. 2005 §IV-B). */
+  medianWeight: 1,
+  medianRadiusSec: 0.1,
+  /** Local-maximum half-width: under half a 1/32 note at 150 BPM (50 ms). */
+  peakRadiusSec: 0.01,
+  /** Coarse peaks closer than minGap − this are merged before refinement. */
+  coarseGapToleranceSec: 0.008,
+  /** Refined onsets closer than minGap − this are merged (timing jitter). */
+  gapToleranceSec: 0.002,
+  /** Innovation of a peak: the largest in the 10 ms after it. */
+  innovationReachSec: 0.01,
+  /** Reference level for the floor: this quantile of the candidates' innovations. */
+  referenceQuantile: 0.75,
+  /** Refinement search window around the coarse frame. */
+  refineBeforeSec: 0.03,
+  refineAfterSec: 0.012,
+  /** Full-rate AR-AIC: predictor order and ridge. */
+  refineOrder: 8,
+  refineRidge: 1e-3,
+  /** The 4 kHz picker overrides the full-rate one only when it is this much earlier… */
+  disagreeSec: 0.007,
+  /** …and then is searched ± this at full rate. */
+  fineSec: 0.003,
+  /** Kick evidence: sustained new low energy, or a tail hit with nothing new above the band. */
+  minSustainDb: 3,
+  tailMinSustainDb: -0.9,
+  tailMaxHighDb: -1,
+  tailMinInnovationDb: -8,
+  /** Span after the onset over which a hit's low-band peak (its strength) is measured. */
+  strengthSpanSec: 0.04,
+};
+export type DetectionTuning = typeof DETECTION_TUNING;
+
+/**
+ * Finds every kick onset in a mono signal.
+ *
+ * 1. Low band: anti-alias, decimate to ~2 kHz, 8th-order Butterworth
+ *    low-pass at `lowBandHz` (shared/dsp/low-band.ts).
+ * 2. Onset function: rise of the low band's linear-prediction error, dB, on
+ *    a 1 ms grid (shared/dsp/onset-function.ts; Bello et al. 2005 §III).
+ * 3. Candidates: local maxima over ±10 ms above δ + λ·median(±100 ms)
+ *    (shared/dsp/peak-pick.ts; Bello et al. 2005 §IV-B, Dixon 2006) whose
+ *    new low-band energy (prediction error) is within `floorBelowLoudestDb`
+ *    of a typical loud hit's.
+ * 4. Refinement to the sample where the hit's energy begins — a tuck placed
+ *    at the energy peak would be late: AR-AIC on the full-rate signal, checked
+ *    against a 4 kHz free-running AR-AIC (shared/dsp/onset-refine.ts).
+ * 5. Kick evidence (shared/dsp/hit-evidence.ts): the low band must sustain
+ *    (≥ 3 dB more energy 15–55 ms after than just before), or — for hits on a
+ *    ringing tail — not fall, bring no new energy above the band, and have a
+ *    strong prediction error. Snares, claps and hats fail both.
+ * 6. Minimum gap: of two hits closer than `minGapMs` (less 2 ms of jitter)
+ *    the one with the larger rise stays.
+ *
+ * strength = peak |low band| in the 40 ms after the onset ÷ the largest such
+ * peak (linear amplitude ratio, 0..1; a ghost note 20 dB down ≈ 0.1).
+ * @param mono mono signal, linear full scale ±1
+ * @param sampleRateHz sample rate in Hz
+ * @returns hits sorted by time, `timeSec = sample / sampleRateHz`, all enabled
+ */
+export function detectOnsets(mono: Float32Array, sampleRateHz: number, options: Partial<DetectionOptions> = {}): Hit[] {
+  const opts = detectionOptionsSchema.parse(options);
+  return detectOnsetsWithLowBand(mono, lowBandOf(mono, sampleRateHz, opts.lowBandHz), sampleRateHz, opts);
+}
+
+/**
+ * detectOnsets with the low band already built (the server builds it block by
+ * block while decoding; shared/dsp/low-band.ts). Same units and steps.
+ */
+export function detectOnsetsWithLowBand(mono: Float32Array, band: LowBand, sampleRateHz: number, opts: DetectionOptions, tuning: DetectionTuning = DETECTION_TUNING): Hit[] {
+  const t = tuning;
+  const thresholds = detectionThresholds(opts.sensitivity);
+  const hop = Math.max(1, Math.round(t.hopSec * band.rateHz));
+  const hopSec = hop / band.rateHz;
+  const odf = predictionOnsetFunction(band.samples, hop, Math.round(t.fitSec * band.rateHz), Math.round(t.scoreSec * band.rateHz));
+  const peaks = pickPeaks(odf.riseDb, thresholds.minRiseDb, t.medianWeight, Math.round(t.medianRadiusSec / hopSec), Math.max(1, Math.round(t.peakRadiusSec / hopSec)));
+  if (peaks.length === 0) return [];
+
+  const spaced = mergeClose(peaks, Math.max(0, (opts.minGapMs / 1000 - t.coarseGapToleranceSec) / hopSec), (f) => odf.riseDb[f]!);
+
+  const reachFrames = Math.round(t.innovationReachSec / hopSec);
+  const innovation = new Map<number, number>();
+  for (const f of spaced) {
+    let max = 0;
+    for (let g = f; g < Math.min(odf.innovation.length, f + reachFrames); g++) max = Math.max(max, odf.innovation[g]!);
+    innovation.set(f, max);
+  }
+  const sorted = [...innovation.values()].sort((a, b) => a - b);
+  const reference = sorted[Math.min(sorted.length - 1, Math.floor(t.referenceQuantile * sorted.length))]!;
+  const floor = reference * 10 ** (-thresholds.floorBelowLoudestDb / 10);
+
+  const kept: Array<{ sample: number; rise: number }> = [];
+  const samplesPerFrame = hop * band.factor;
+  const minGapSamples = (opts.minGapMs / 1000 - t.gapToleranceSec) * sampleRateHz;
+  let previousEnd = 0;
+  for (const frame of spaced) {
+    const frameInnovation = innovation.get(frame)!;
+    if (frameInnovation < floor) continue;
+    const frameSample = frame * samplesPerFrame;
+    const start = Math.max(previousEnd, frameSample - Math.round(t.refineBeforeSec * sampleRateHz));
+    const end = Math.min(mono.length, frameSample + Math.round(t.refineAfterSec * sampleRateHz));
+    const fitSamples = Math.round(t.fitSec * sampleRateHz);
+    let sample = arAicChangePoint(mono, start, end, fitSamples, t.refineOrder, t.refineRidge);
+    // The full-rate picker can lock onto a later broadband event (a room's
+    // tail) when a low, soft kick starts under noise; the 4 kHz picker sees
+    // the body. Take it when it is clearly earlier, keeps the minimum gap and
+    // the energy jumps more there.
+    const robust = refineOnsetSample(mono, sampleRateHz, start, end, t.fitSec);
+    if (sample - robust > t.disagreeSec * sampleRateHz && robust - previousEnd >= minGapSamples) {
+      const half = Math.round(t.fineSec * sampleRateHz);
+      const fine = arAicChangePoint(mono, Math.max(start, robust - half), Math.min(end, robust + half), fitSamples, t.refineOrder, t.refineRidge);
+      if (energyJumpDb(mono, fine, sampleRateHz) > energyJumpDb(mono, sample, sampleRateHz)) sample = fine;
+    }
+    const sustain = sustainDb(band, Math.floor(sample / band.factor));
+    const isKick =
+      sustain >= t.minSustainDb ||
+      (sustain >= t.tailMinSustainDb && newHighBandDb(mono, band, sample, sampleRateHz) < t.tailMaxHighDb && 10 * Math.log10(frameInnovation / reference) >= t.tailMinInnovationDb);
+    if (!isKick) continue;
+    kept.push({ sample, rise: odf.riseDb[frame]! });
+    previousEnd = sample + 1;
+  }
+  const hits = mergeClose(kept, minGapSamples, (h) => h.rise, (h) => h.sample);
+
+  const span = Math.round(t.strengthSpanSec * band.rateHz);
+  const peakAmplitude = hits.map(({ sample }) => {
+    let max = 0;
+    const from = Math.floor(sample / band.factor);
+    for (let i = from; i < Math.min(band.samples.length, from + span); i++) max = Math.max(max, Math.abs(band.samples[i]!));
+    return max;
+  });
+  const maxAmplitude = Math.max(...peakAmplitude, 1e-12);
+  return hits.map(({ sample }, i) => ({
+    timeSec: sample / sampleRateHz,
+    sample,
+    strength: Math.min(1, peakAmplitude[i]! / maxAmplitude),
+    enabled: true,
+  }));
+}
+
+/** Of items (sorted by position) closer than `gap`, keeps the one with the larger score. */
+function mergeClose<T>(items: readonly T[], gap: number, score: (item: T) => number, position: (item: T) => number = (item) => item as unknown as number): T[] {
+  const out: T[] = [];
+  for (const item of items) {
+    const last = out[out.length - 1];
+    if (last !== undefined && position(item) - position(last) < gap) {
+      if (score(item) > score(last)) out[out.length - 1] = item;
+      continue;
+    }
+    out.push(item);
+  }
+  return out;
+}
