@@ -1,0 +1,82 @@
+import { cascadeState, processCascadeInPlace } from './biquad';
+import { kWeightingFilters } from './k-weighting';
+
+export interface LoudnessResult {
+  /** Integrated loudness, LUFS (−Infinity when every block is gated out). */
+  integratedLufs: number;
+  /** Highest short-term (3 s) loudness, LUFS, evaluated every 100 ms. */
+  maxShortTermLufs: number;
+  /** Highest momentary (400 ms) loudness, LUFS. */
+  maxMomentaryLufs: number;
+}
+
+/** Channel weights G_i of BS.1770-4 Table 3: 1.0 for L, R, C; 1.41 for Ls, Rs (5.1 order L R C LFE Ls Rs; LFE excluded). */
+function channelWeights(channels: number): number[] {
+  if (channels === 6) return [1, 1, 1, 0, 1.41, 1.41];
+  return new Array(channels).fill(1);
+}
+
+const toLufs = (meanSquare: number) => -0.691 + 10 * Math.log10(meanSquare);
+
+/**
+ * Loudness per ITU-R BS.1770-4 and EBU Tech 3341/3342:
+ * K-weight each channel, mean square z_i over 400 ms blocks with 75 % overlap,
+ * L = −0.691 + 10·log10 Σ G_i·z_i; integrated = gated mean over blocks above
+ * −70 LUFS (absolute gate) and above the absolute-gated loudness − 10 LU
+ * (relative gate). Short-term: 3 s windows every 100 ms (EBU Tech 3341 §2.2).
+ *
+ * @param channels one Float32Array per channel, −1..1
+ * @param sampleRateHz sample rate
+ */
+export function measureLoudness(channels: readonly Float32Array[], sampleRateHz: number): LoudnessResult {
+  const frames = channels[0]?.length ?? 0;
+  const weights = channelWeights(channels.length);
+  const step = Math.round(0.1 * sampleRateHz); // 100 ms: the 75 % overlap hop of 400 ms blocks
+  const steps = Math.floor(frames / step);
+  // Weighted power per 100 ms step, summed over channels.
+  const power = new Float64Array(steps);
+  const filters = kWeightingFilters(sampleRateHz);
+  const buffer = new Float32Array(step);
+  channels.forEach((channel, c) => {
+    const w = weights[c];
+    if (!w) return;
+    const state = cascadeState(filters);
+    for (let s = 0; s < steps; s++) {
+      buffer.set(channel.subarray(s * step, (s + 1) * step));
+      processCascadeInPlace(filters, state, buffer);
+      let sum = 0;
+      for (let i = 0; i < step; i++) sum += buffer[i] * buffer[i];
+      power[s] += w * sum;
+    }
+  });
+
+  const windowPower = (stepsPerWindow: number) => {
+    const out: number[] = [];
+    let acc = 0;
+    for (let s = 0; s < steps; s++) {
+      acc += power[s];
+      if (s >= stepsPerWindow) acc -= power[s - stepsPerWindow];
+      if (s >= stepsPerWindow - 1) out.push(Math.max(0, acc) / (stepsPerWindow * step));
+    }
+    return out;
+  };
+  const blocks = windowPower(4);
+  const shortTerm = windowPower(30);
+
+  const absGated = blocks.filter((z) => toLufs(z) > -70);
+  let integratedLufs = -Infinity;
+  if (absGated.length) {
+    const relativeGate = toLufs(absGated.reduce((a, b) => a + b, 0) / absGated.length) - 10;
+    const gated = absGated.filter((z) => toLufs(z) > relativeGate);
+    if (gated.length) integratedLufs = toLufs(gated.reduce((a, b) => a + b, 0) / gated.length);
+  }
+  const maxOf = (values: number[]) => (values.length ? toLufs(Math.max(...values)) : -Infinity);
+  return { integratedLufs, maxShortTermLufs: maxOf(shortTerm), maxMomentaryLufs: maxOf(blocks) };
+}
+
+/** Sample peak, dBFS: 20·log10 max |x| over all channels (−Infinity for silence). */
+export function samplePeakDbfs(channels: readonly Float32Array[]): number {
+  let peak = 0;
+  for (const ch of channels) for (let i = 0; i < ch.length; i++) if (Math.abs(ch[i]) > peak) peak = Math.abs(ch[i]);
+  return 20 * Math.log10(peak);
+}
