@@ -1,0 +1,101 @@
+import { createBandSplitter } from './crossover';
+
+export interface HitPhase {
+  timeSec: number;
+  /** Pearson correlation of kick and bass in the low band over the hit window, −1..1 (NaN when either is silent). */
+  correlation: number;
+  /** Peak of kick + bass against the louder part's peak, dB: +6.02 = fully adding, very negative = cancelling. */
+  sumVsLouderDb: number;
+  flag: 'adds' | 'cancels' | null;
+}
+
+export interface PhaseSuggestion {
+  /** Flip the bass's polarity? */
+  invertBass: boolean;
+  /** Move the bass by this much, ms (positive = later), within ±maxOffsetMs. */
+  offsetMs: number;
+  /** Mean correlation over the checked hits now and with the suggestion applied. */
+  meanCorrelationNow: number;
+  meanCorrelationSuggested: number;
+}
+
+export interface PhaseCheckOptions {
+  crossoverHz?: number;
+  windowBeforeMs?: number;
+  windowAfterMs?: number;
+  /** |sumVsLouderDb| beyond which a hit is flagged. +3 dB "adds", −3 dB "cancels" — our choice. */
+  flagDb?: number;
+  maxOffsetMs?: number;
+  offsetStepMs?: number;
+}
+
+function lowBand(mono: Float32Array, crossoverHz: number, sampleRateHz: number): Float32Array {
+  const low = new Float32Array(mono.length);
+  const high = new Float32Array(mono.length);
+  createBandSplitter(crossoverHz, sampleRateHz).split(mono, low, high);
+  return low;
+}
+
+/**
+ * The phase check (GLOSSARY "Phase check"): per hit, in the low band below the
+ * crossover (LR4), the correlation of kick and bass and how the sum's peak
+ * compares with the louder part's — two equal in-phase sines add +6.02 dB, a
+ * polarity-inverted copy cancels (REFERENCES.md "Summing"). For the song, the
+ * polarity and bass offset (±5 ms) that maximise the mean correlation, as advice.
+ *
+ * @param kickMono kick, mono, −1..1
+ * @param bassMono bass, mono, same rate
+ */
+export function phaseCheck(kickMono: Float32Array, bassMono: Float32Array, sampleRateHz: number, hitTimesSec: readonly number[], options: PhaseCheckOptions = {}): { hits: HitPhase[]; suggestion: PhaseSuggestion } {
+  const o = { crossoverHz: 150, windowBeforeMs: 0, windowAfterMs: 60, flagDb: 3, maxOffsetMs: 5, offsetStepMs: 0.5, ...options };
+  const k = lowBand(kickMono, o.crossoverHz, sampleRateHz);
+  const b = lowBand(bassMono, o.crossoverHz, sampleRateHz);
+  const before = Math.round((o.windowBeforeMs / 1000) * sampleRateHz);
+  const after = Math.round((o.windowAfterMs / 1000) * sampleRateHz);
+  const n = Math.min(k.length, b.length);
+
+  const stats = (start: number, shift: number, sign: number) => {
+    let kk = 0, bb = 0, kb = 0, pk = 0, pb = 0, ps = 0;
+    for (let i = Math.max(0, start - before); i < Math.min(n, start + after); i++) {
+      const j = i - shift;
+      const bv = j >= 0 && j < n ? sign * b[j] : 0;
+      const kv = k[i];
+      kk += kv * kv;
+      bb += bv * bv;
+      kb += kv * bv;
+      pk = Math.max(pk, Math.abs(kv));
+      pb = Math.max(pb, Math.abs(bv));
+      ps = Math.max(ps, Math.abs(kv + bv));
+    }
+    return { r: kb / Math.sqrt(kk * bb), sumVsLouderDb: 20 * Math.log10(ps / Math.max(pk, pb)) };
+  };
+
+  const starts = hitTimesSec.map((t) => Math.round(t * sampleRateHz));
+  const hits: HitPhase[] = starts.map((s, i) => {
+    const { r, sumVsLouderDb } = stats(s, 0, 1);
+    const flag = sumVsLouderDb >= o.flagDb ? 'adds' : sumVsLouderDb <= -o.flagDb ? 'cancels' : null;
+    return { timeSec: hitTimesSec[i], correlation: r, sumVsLouderDb, flag };
+  });
+
+  const meanR = (shift: number, sign: number) => {
+    let sum = 0;
+    let count = 0;
+    for (const s of starts) {
+      const { r } = stats(s, shift, sign);
+      if (Number.isFinite(r)) {
+        sum += r;
+        count++;
+      }
+    }
+    return count ? sum / count : NaN;
+  };
+  const now = meanR(0, 1);
+  let best = { invertBass: false, offsetMs: 0, r: now };
+  for (const sign of [1, -1]) {
+    for (let ms = -o.maxOffsetMs; ms <= o.maxOffsetMs + 1e-9; ms += o.offsetStepMs) {
+      const r = meanR(Math.round((ms / 1000) * sampleRateHz), sign);
+      if (r > best.r + 1e-6) best = { invertBass: sign < 0, offsetMs: Math.round(ms * 10) / 10, r };
+    }
+  }
+  return { hits, suggestion: { invertBass: best.invertBass, offsetMs: best.offsetMs, meanCorrelationNow: now, meanCorrelationSuggested: best.r } };
+}
