@@ -32,6 +32,8 @@ import { createFileStore } from './storage/file-store';
 import { createPresetsRepository } from './presets/presets.repository';
 import { presetsRoutes } from './presets/presets.routes';
 import { auditRoutes } from './audit/audit.routes';
+import { createReportService } from './report/report.service';
+import { reportRoutes } from './report/report.routes';
 import { createPasswordResetService } from './auth/password-reset.service';
 import { createInvitationsService } from './invitations/invitations.service';
 import { publicInvitationsRoutes, teamInvitationsRoutes } from './invitations/invitations.routes';
@@ -70,7 +72,9 @@ export function createApp(deps: AppDeps) {
   const hitsService = createHitsService({ db, hits: createHitsRepository(db), stems: stemsRepo, store });
   const stemsService = createStemsService({ db, stems: stemsRepo, store, hits: hitsService });
   const presets = createPresetsRepository(db);
-  const lanesService = createLanesService({ lanes: createLanesRepository(db), hits: hitsService, stems: stemsService, stemsRepo, presets });
+  const lanesRepo = createLanesRepository(db);
+  const lanesService = createLanesService({ lanes: lanesRepo, hits: hitsService, stems: stemsService, stemsRepo, presets });
+  const reports = createReportService({ hits: hitsService, lanes: lanesService, lanesRepo, store });
   const exportsService = createExportsService({ db, store, songs, lanes: lanesService });
   const tokens = { secret: config.jwtSecret, hours: config.sessionHours, secureCookie: config.publicUrl.startsWith('https:') };
 
@@ -126,6 +130,7 @@ export function createApp(deps: AppDeps) {
   teamScoped.use('/songs/:songId/hits', hitsRoutes({ hits: hitsService, song }));
   teamScoped.use('/songs/:songId/lanes', lanesRoutes({ lanes: lanesService, song }));
   teamScoped.use('/songs/:songId/exports', exportsRoutes({ exports: exportsService, song, audit }));
+  teamScoped.use('/songs/:songId/report', reportRoutes({ reports, song }));
   teamScoped.use('/songs', songsRoutes({ songs }));
   teamScoped.use('/invitations', teamInvitationsRoutes({ invitations }));
   teamScoped.use('/audit', auditRoutes({ db }));
