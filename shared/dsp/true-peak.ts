@@ -1,13 +1,16 @@
 /**
  * True peak per ITU-R BS.1770-4 Annex 2: oversample by 4, take the largest
  * absolute value, in dBTP. The annex's own 48-tap filter is one choice; this
- * one is our design with the same shape — 4 phases of 12 taps, a windowed sinc
+ * one is our design — 4 phases of 24 taps, a windowed sinc
  * (Kaiser, β = 8) cut at the original Nyquist frequency, each phase normalised
  * to unity gain at DC. The annex allows any interpolator that meets its
- * accuracy; the EBU Tech 3341 true-peak cases check ours (tested).
+ * accuracy; the EBU Tech 3341 true-peak cases check ours, and so does
+ * ffmpeg's ebur128 meter on music-like and full-band noise signals (tested).
+ * 24 taps a phase rather than the annex's 12: on full-band noise a shorter
+ * interpolator under-reads by about 1 dB (measured here against ffmpeg).
  */
 const PHASES = 4;
-const TAPS = 12;
+const TAPS = 24;
 
 function besselI0(x: number): number {
   let sum = 1;
