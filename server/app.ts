@@ -130,7 +130,7 @@ export function createApp(deps: AppDeps) {
   teamScoped.use('/songs/:songId/hits', hitsRoutes({ hits: hitsService, song }));
   teamScoped.use('/songs/:songId/lanes', lanesRoutes({ lanes: lanesService, song }));
   teamScoped.use('/songs/:songId/exports', exportsRoutes({ exports: exportsService, song, audit }));
-  teamScoped.use('/songs/:songId/report', reportRoutes({ reports, song }));
+  teamScoped.use('/songs/:songId/report', reportRoutes({ reports, songs, song }));
   teamScoped.use('/songs', songsRoutes({ songs }));
   teamScoped.use('/invitations', teamInvitationsRoutes({ invitations }));
   teamScoped.use('/audit', auditRoutes({ db }));

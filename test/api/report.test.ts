@@ -53,4 +53,14 @@ describe('headroom report', () => {
       expect(h.sumVsLouderDb).toBeLessThanOrEqual(6.03);
     }
   });
+
+  it('prints a one-page HTML summary with the same figures', async () => {
+    const json = (await engineer.get(`${base}/report`)).body;
+    const page = await engineer.get(`${base}/report/printable`);
+    expect(page.status).toBe(200);
+    expect(page.headers['content-type']).toMatch(/text\/html/);
+    expect(page.text).toContain('Headroom report — Salt Flats');
+    expect(page.text).toContain(`${json.headroomGainedDb.samplePeak.toFixed(1)} dB`);
+    expect(page.text).not.toMatch(/<script/i);
+  });
 });
