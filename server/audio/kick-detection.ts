@@ -1,12 +1,11 @@
 import { open, readFile, stat } from 'node:fs/promises';
 import { detectionOptionsSchema, type DetectionOptions, type Hit, type MidiKickOptions } from '../../shared/schemas/hit';
 import { detectOnsetsWithLowBand } from '../../shared/dsp/onsets';
-import { mixdownInto } from '../../shared/dsp/mixdown';
 import { createLowBandBuilder, finishLowBand, pushLowBand } from '../../shared/dsp/low-band';
 import { MidiFormatError, readMidiKicks } from '../../shared/formats/midi-read';
 import { sniffNonWav } from '../../shared/formats/wav-header';
 import { AudioInputError } from './audio-errors';
-import { openWav } from './wav-file';
+import { decodeMonoInto, openWav, type MonoDecoder } from './wav-file';
 
 export interface DetectionResult {
   source: 'audio' | 'midi';
@@ -21,6 +20,8 @@ export interface DetectKickOptions {
   kind?: 'audio' | 'midi';
   detection?: Partial<DetectionOptions>;
   midi?: Partial<MidiKickOptions>;
+  /** WAV decoding path (server/audio/wav-file.ts); 'direct' unless told. */
+  decoder?: MonoDecoder;
 }
 
 /** MIDI files above this are refused before reading (an SMF of a song is kilobytes). */
@@ -57,11 +58,7 @@ export async function detectKickFile(path: string, opts: DetectKickOptions = {})
     const { frames, sampleRate } = wav.info;
     const mono = new Float32Array(frames);
     const band = createLowBandBuilder(sampleRate, frames, detection.lowBandHz);
-    await wav.forEachBlock((block, first) => {
-      const monoBlock = mono.subarray(first, first + block[0]!.length);
-      mixdownInto(block, mono, first);
-      pushLowBand(band, monoBlock);
-    });
+    await decodeMonoInto(wav, mono, opts.decoder ?? 'direct', (first, n) => pushLowBand(band, mono.subarray(first, first + n)));
     const hits = detectOnsetsWithLowBand(mono, finishLowBand(band), sampleRate, detection);
     return { source: 'audio', sampleRate, durationSec: wav.info.durationSec, hits };
   } finally {

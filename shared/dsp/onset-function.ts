@@ -20,7 +20,7 @@ export interface PredictionOnsetFunction {
   innovation: Float64Array;
 }
 
-/** Predictor order: two damped sinusoids (a ringing tail and the one before it). */
+/** Predictor order: two damped sinusoids (a ringing tail and the one before it); the scoring loop is unrolled for it. */
 const ORDER = 4;
 
 /**
@@ -90,13 +90,16 @@ export function predictionOnsetFunction(x: Float32Array, hopSamples: number, fit
     const before = count > 0 ? Math.max(0, err) / count : 0;
     let after = 0;
     let sig = 0;
-    const end = Math.min(n, s + windowSamples);
-    for (let i = s; i < end; i++) {
-      let pred = 0;
-      for (let k = 1; k <= p; k++) pred += i - k >= 0 ? a[k - 1]! * x[i - k]! : 0;
-      const e = x[i]! - pred;
+    const end = s + windowSamples < n ? s + windowSamples : n;
+    const a1 = a[0]!;
+    const a2 = a[1]!;
+    const a3 = a[2]!;
+    const a4 = a[3]!;
+    for (let i = s < p ? p : s; i < end; i++) {
+      const xi = x[i]!;
+      const e = xi - (a1 * x[i - 1]! + a2 * x[i - 2]! + a3 * x[i - 3]! + a4 * x[i - 4]!);
       after += e * e;
-      sig += x[i]! * x[i]!;
+      sig += xi * xi;
     }
     const len = Math.max(1, end - s);
     after /= len;

@@ -46,3 +46,72 @@ export function wavDataBlocks(layout: WavLayout, targetBytes = 1 << 20): Array<[
   }
   return blocks;
 }
+
+/**
+ * Decodes one block of a data chunk (whole frames) straight into its mono
+ * mixdown, out[offset + i] = (1/C)·Σc sample(i, c), without per-channel
+ * arrays. Same scaling as wav-decoder 1.3.0 (so both paths agree to float32
+ * rounding): integers divide by 2^(b−1) when negative and 2^(b−1) − 1 when
+ * positive; 8-bit is offset binary (x − 128); floats pass through.
+ * The speed path for detection: wav-decoder's per-sample DataView reads
+ * take ~1.4 s for a 5-minute 48 kHz stereo 24-bit file, this ~0.1 s.
+ * @param layout the validated layout (shared/formats/wav-header.ts)
+ * @param block bytes of whole frames from the data chunk
+ * @param out mono destination, linear full scale ±1
+ * @param offset first index of `out` written
+ * @returns frames decoded
+ */
+export function decodeMonoBlockInto(layout: WavLayout, block: Uint8Array, out: Float32Array, offset: number): number {
+  const c = layout.channels;
+  const frames = Math.floor(block.length / layout.blockAlign);
+  const scale = 1 / c;
+  const view = new DataView(block.buffer, block.byteOffset, block.byteLength);
+  const bytes = layout.bitsPerSample / 8;
+  if (layout.sampleFormat === 'float') {
+    for (let i = 0, at = 0; i < frames; i++) {
+      let sum = 0;
+      for (let ch = 0; ch < c; ch++, at += bytes) sum += bytes === 4 ? view.getFloat32(at, true) : view.getFloat64(at, true);
+      out[offset + i] = sum * scale;
+    }
+    return frames;
+  }
+  const neg = 2 ** (layout.bitsPerSample - 1);
+  const pos = neg - 1;
+  const invNeg = 1 / neg;
+  const invPos = 1 / pos;
+  const norm = (v: number): number => (v < 0 ? v * invNeg : v * invPos);
+  if (bytes === 3 && c === 2) {
+    // The common stem format (stereo 24-bit), unrolled.
+    const half = 0.5;
+    for (let i = 0, at = 0; i < frames; i++, at += 6) {
+      const u0 = block[at]! | (block[at + 1]! << 8) | (block[at + 2]! << 16);
+      const u1 = block[at + 3]! | (block[at + 4]! << 8) | (block[at + 5]! << 16);
+      const v0 = u0 > 0x800000 ? u0 - 0x1000000 : u0;
+      const v1 = u1 > 0x800000 ? u1 - 0x1000000 : u1;
+      out[offset + i] = ((v0 < 0 ? v0 / neg : v0 / pos) + (v1 < 0 ? v1 / neg : v1 / pos)) * half;
+    }
+    return frames;
+  }
+  if (bytes === 3) {
+    for (let i = 0, at = 0; i < frames; i++) {
+      let sum = 0;
+      for (let ch = 0; ch < c; ch++, at += 3) {
+        const u = block[at]! | (block[at + 1]! << 8) | (block[at + 2]! << 16);
+        // wav-decoder treats 0x800000 itself as positive (xx > 0x800000); kept for agreement.
+        const v = u > 0x800000 ? u - 0x1000000 : u;
+        sum += v < 0 ? v / neg : v / pos;
+      }
+      out[offset + i] = sum * scale;
+    }
+    return frames;
+  }
+  for (let i = 0, at = 0; i < frames; i++) {
+    let sum = 0;
+    for (let ch = 0; ch < c; ch++, at += bytes) {
+      const v = bytes === 2 ? view.getInt16(at, true) : bytes === 4 ? view.getInt32(at, true) : view.getUint8(at) - 128;
+      sum += bytes === 1 ? (v < 0 ? v / 128 : v / 127) : norm(v);
+    }
+    out[offset + i] = sum * scale;
+  }
+  return frames;
+}
