@@ -1,4 +1,3 @@
-import { cascadeState, processCascadeInPlace } from './biquad';
 import { kWeightingFilters } from './k-weighting';
 
 export interface LoudnessResult {
@@ -33,20 +32,30 @@ export function measureLoudness(channels: readonly Float32Array[], sampleRateHz:
   const weights = channelWeights(channels.length);
   const step = Math.round(0.1 * sampleRateHz); // 100 ms: the 75 % overlap hop of 400 ms blocks
   const steps = Math.floor(frames / step);
-  // Weighted power per 100 ms step, summed over channels.
+  // Weighted power per 100 ms step, summed over channels. The two K-weighting
+  // biquads run inline (transposed direct form II): this loop is the cost of the report.
   const power = new Float64Array(steps);
-  const filters = kWeightingFilters(sampleRateHz);
-  const buffer = new Float32Array(step);
+  const [shelf, hp] = kWeightingFilters(sampleRateHz);
   channels.forEach((channel, c) => {
     const w = weights[c];
     if (!w) return;
-    const state = cascadeState(filters);
-    for (let s = 0; s < steps; s++) {
-      buffer.set(channel.subarray(s * step, (s + 1) * step));
-      processCascadeInPlace(filters, state, buffer);
+    const { b0: sb0, b1: sb1, b2: sb2, a1: sa1, a2: sa2 } = shelf;
+    const { b0: hb0, b1: hb1, b2: hb2, a1: ha1, a2: ha2 } = hp;
+    let s1 = 0, s2 = 0, h1 = 0, h2 = 0;
+    for (let st = 0; st < steps; st++) {
       let sum = 0;
-      for (let i = 0; i < step; i++) sum += buffer[i] * buffer[i];
-      power[s] += w * sum;
+      const end = (st + 1) * step;
+      for (let i = st * step; i < end; i++) {
+        const x = channel[i];
+        const y = sb0 * x + s1;
+        s1 = sb1 * x - sa1 * y + s2;
+        s2 = sb2 * x - sa2 * y;
+        const z = hb0 * y + h1;
+        h1 = hb1 * y - ha1 * z + h2;
+        h2 = hb2 * y - ha2 * z;
+        sum += z * z;
+      }
+      power[st] += w * sum;
     }
   });
 

@@ -51,38 +51,53 @@ function designPhases(): Float64Array[] {
 
 const phases = designPhases();
 /** Largest Σ|taps| of a phase: no interpolated value exceeds this times the largest |x| under the taps. */
-const tapGain = Math.max(...phases.map((taps) => taps.reduce((a, b) => a + Math.abs(b), 0)));
+export const tapGain = Math.max(...phases.map((taps) => taps.reduce((a, b) => a + Math.abs(b), 0)));
+
+/** Samples per block of the search below. */
+const BLOCK = 64;
 
 /**
  * Largest |x| of the 4× oversampled signal of one channel (linear, full scale = 1).
- * Positions whose neighbourhood cannot beat the peak found so far are skipped
- * (bound: |y| ≤ Σ|h|·max|x| under the taps), which leaves the result exact and
- * makes music cost little more than one pass.
+ * Interpolated values are bounded by Σ|taps|·max|x| under the taps, so blocks
+ * are visited loudest first and the search stops at the first block whose
+ * bound cannot beat the peak found so far: the result is exact, and music
+ * costs little more than one pass over the samples.
  */
 export function truePeakLinear(samples: Float32Array): number {
-  let peak = 0;
   const n = samples.length;
-  for (let i = 0; i < n; i++) {
-    const a = Math.abs(samples[i]);
-    if (a > peak) peak = a;
-  }
-  const half = TAPS / 2;
-  for (let i = 0; i < n; i++) {
-    let local = 0;
-    for (let j = Math.max(0, i - half); j <= Math.min(n - 1, i + half); j++) {
-      const a = Math.abs(samples[j]);
-      if (a > local) local = a;
+  const blocks = Math.ceil(n / BLOCK);
+  const blockMax = new Float32Array(blocks);
+  let peak = 0;
+  for (let b = 0; b < blocks; b++) {
+    let m = 0;
+    const end = Math.min(n, (b + 1) * BLOCK);
+    for (let i = b * BLOCK; i < end; i++) {
+      const a = samples[i] < 0 ? -samples[i] : samples[i];
+      if (a > m) m = a;
     }
-    if (local * tapGain <= peak) continue;
-    for (let p = 0; p < PHASES; p++) {
-      const taps = phases[p];
-      let acc = 0;
-      for (let k = 0; k < TAPS; k++) {
-        const j = i - k + TAPS / 2;
-        if (j >= 0 && j < n) acc += taps[k] * samples[j];
+    blockMax[b] = m;
+    if (m > peak) peak = m;
+  }
+  // A block's interpolated values also depend on up to TAPS/2 samples of each neighbour.
+  const reach = new Float32Array(blocks);
+  for (let b = 0; b < blocks; b++) reach[b] = Math.max(blockMax[b], b > 0 ? blockMax[b - 1] : 0, b + 1 < blocks ? blockMax[b + 1] : 0);
+  const order = Array.from({ length: blocks }, (_, b) => b).sort((a, b) => reach[b] - reach[a]);
+  const half = TAPS / 2;
+  for (const b of order) {
+    if (reach[b] * tapGain <= peak) break;
+    const end = Math.min(n, (b + 1) * BLOCK);
+    for (let i = b * BLOCK; i < end; i++) {
+      for (let p = 1; p < PHASES; p++) {
+        const taps = phases[p];
+        let acc = 0;
+        const j0 = i + half;
+        for (let k = 0; k < TAPS; k++) {
+          const j = j0 - k;
+          if (j >= 0 && j < n) acc += taps[k] * samples[j];
+        }
+        const a = acc < 0 ? -acc : acc;
+        if (a > peak) peak = a;
       }
-      const a = Math.abs(acc);
-      if (a > peak) peak = a;
     }
   }
   return peak;
