@@ -22,7 +22,7 @@ import type { TuckTemplate } from './gain-curve';
  * linear in dB clicks at its corners; a raised cosine in amplitude has an
  * unbounded dB slope near the floor; a cosine in dB bunches its amplitude
  * change at the top and needs 13.7 ms for 40 dB at the default caps (this ease
- * 9.6 ms).
+ * 10.0 ms, including `GUARD_MARGIN`).
  */
 
 /** Default error of the straight-in-dB pieces a stamped ease is sampled into, dB. */
@@ -34,7 +34,8 @@ export const DEFAULT_RAMP_TOLERANCE_DB = 0.05;
  * the amplitude cap (and its dB slope within the dB cap), otherwise it becomes
  * an ease. Measured here: a 60 dB straight-in-dB ramp of 40 ms (corner slope
  * ≈ 0.17/ms) splatters at −69 dB at 55 Hz, 20 ms at −64 dB; a quarter of the
- * default cap (0.05/ms) keeps corners near −80 dB. Our choice.
+ * default cap (0.05/ms) keeps corners near −80 dB (extrapolated at 6 dB per
+ * doubling of length). Our choice.
  */
 export const LINEAR_CORNER_FRACTION = 0.25;
 

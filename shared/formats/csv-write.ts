@@ -18,13 +18,22 @@ export function writeBreakpointCsv(curve: GainCurve, options: CsvExportOptionsIn
   const o = csvExportOptionsSchema.parse(options);
   const lines: string[] = [CSV_COLUMNS.join(',')];
   let lastTime = '';
+  let lastGain = NaN;
+  let lastGainText = '';
+  let lastLinear = '';
   for (const p of curve.points) {
-    const time = fixed(Math.max(0, p.timeSec), 6);
+    const t = Math.max(0, p.timeSec);
+    const time = fixed(t, 6);
     if (time === lastTime) continue;
     lastTime = time;
-    const sample = Math.round(Math.max(0, p.timeSec) * o.sampleRate);
-    const bbt = formatBarBeatTick(secondsToBarBeatTick(p.timeSec, o.bpm, o.timeSignature, o.ppq));
-    lines.push(`${time},${fixed(p.gainDb, 3)},${sample},${bbt},${fixed(Math.pow(10, p.gainDb / 20), 6)}`);
+    // Flat runs repeat their gain: format it once.
+    if (p.gainDb !== lastGain) {
+      lastGain = p.gainDb;
+      lastGainText = fixed(p.gainDb, 3);
+      lastLinear = fixed(Math.pow(10, p.gainDb / 20), 6);
+    }
+    const bbt = formatBarBeatTick(secondsToBarBeatTick(t, o.bpm, o.timeSignature, o.ppq));
+    lines.push(`${time},${lastGainText},${Math.round(t * o.sampleRate)},${bbt},${lastLinear}`);
   }
   return lines.join('\r\n') + '\r\n';
 }
@@ -32,5 +41,5 @@ export function writeBreakpointCsv(curve: GainCurve, options: CsvExportOptionsIn
 /** Fixed decimals with '.' and no "-0.000". */
 function fixed(x: number, decimals: number): string {
   const s = x.toFixed(decimals);
-  return /^-0\.?0*$/.test(s) ? s.slice(1) : s;
+  return s.charCodeAt(0) === 45 && Number(s) === 0 ? s.slice(1) : s;
 }

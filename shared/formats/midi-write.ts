@@ -80,17 +80,32 @@ function noteOff(tick: number, channel: number, key: number): TrackEvent {
   return { tick, rank: 3, bytes: [0x80 | (channel - 1), key, 0x40] };
 }
 
-/** Sorts by absolute tick (stable, then rank), writes delta ticks, ends with FF 2F 00. */
-function encodeTrack(events: TrackEvent[]): number[] {
-  const sorted = events.map((e, i) => ({ e, i })).sort((x, y) => x.e.tick - y.e.tick || x.e.rank - y.e.rank || x.i - y.i);
-  const data: number[] = [];
+/** Sorts by absolute tick (stable, then rank), writes delta ticks (VLQ), ends with FF 2F 00; returns the MTrk chunk. */
+function encodeTrack(events: TrackEvent[]): Uint8Array {
+  let sorted = true;
+  for (let i = 1; i < events.length && sorted; i++) {
+    const p = events[i - 1];
+    const e = events[i];
+    if (e.tick < p.tick || (e.tick === p.tick && e.rank < p.rank)) sorted = false;
+  }
+  // Array.prototype.sort is stable (ES2019), so equal ticks and ranks keep their order.
+  const order = sorted ? events : [...events].sort((x, y) => x.tick - y.tick || x.rank - y.rank);
+  let size = 8 + 4;
+  for (const e of order) size += 4 + e.bytes.length;
+  const out = new Uint8Array(size);
+  let at = 8;
   let now = 0;
-  for (const { e } of sorted) {
-    data.push(...encodeVlq(e.tick - now), ...e.bytes);
+  for (const e of order) {
+    for (const b of encodeVlq(e.tick - now)) out[at++] = b;
+    for (let k = 0; k < e.bytes.length; k++) out[at++] = e.bytes[k];
     now = e.tick;
   }
-  data.push(0x00, 0xff, 0x2f, 0x00);
-  return [0x4d, 0x54, 0x72, 0x6b, ...u32(data.length), ...data];
+  out[at++] = 0x00;
+  out[at++] = 0xff;
+  out[at++] = 0x2f;
+  out[at++] = 0x00;
+  out.set([0x4d, 0x54, 0x72, 0x6b, ...u32(at - 8)], 0);
+  return out.subarray(0, at);
 }
 
 function u32(v: number): number[] {
@@ -117,21 +132,32 @@ const MARKER_CHANNEL = 10;
  * The controller stream of a curve on the tick grid: the value at tick 0,
  * then the curve's value at every tick (time = tick·60/(bpm·ppq)) where it
  * changes, kept only when it differs from the last one written (no repeated
- * values). Flat stretches cost one evaluation. Values through `toValue`.
+ * values). Values v = round(fullScale·10^(G/40)), 0 at or below the floor
+ * (`gainDbToCc7` with fullScale 127, `gainDbToCc14` with 16383). Inside a
+ * segment (straight in dB) 10^(G/40) is geometric in the tick, so it is
+ * advanced by one multiplication per tick and re-anchored at every breakpoint.
+ * `visit` gets each (tick, value) in ascending tick order.
  */
-export function ccStream(curve: GainCurve, bpm: number, ppq: number, toValue: (gainDb: number) => number): { tick: number; value: number }[] {
+export function forEachCcChange(curve: GainCurve, bpm: number, ppq: number, fullScale: number, visit: (tick: number, value: number) => void): void {
   const p = curve.points;
-  const out: { tick: number; value: number }[] = [];
-  if (p.length === 0) return out;
+  if (p.length === 0) return;
+  const floorDb = curve.floorDb ?? -Infinity;
+  const toValue = (gainDb: number) => (gainDb <= floorDb ? 0 : Math.max(0, Math.min(fullScale, Math.round(fullScale * Math.pow(10, gainDb / 40)))));
+  const xFloor = Math.pow(10, floorDb / 40);
   const ticksPerSec = (bpm * ppq) / 60;
-  let last = toValue(p[0].gainDb);
-  out.push({ tick: 0, value: last });
-  const emit = (tick: number, value: number) => {
-    if (value === last) return;
-    const prev = out[out.length - 1];
-    if (prev.tick === tick) prev.value = value;
-    else out.push({ tick, value });
-    last = value;
+  let written = -1;
+  let pendingTick = 0;
+  let pendingValue = toValue(p[0].gainDb);
+  // The value a tick ends with counts; it is written when it differs from the last one written.
+  const at = (tick: number, value: number) => {
+    if (tick !== pendingTick) {
+      if (pendingValue !== written) {
+        visit(pendingTick, pendingValue);
+        written = pendingValue;
+      }
+      pendingTick = tick;
+    }
+    pendingValue = value;
   };
   for (let i = 0; i + 1 < p.length; i++) {
     const a = p[i];
@@ -140,15 +166,26 @@ export function ccStream(curve: GainCurve, bpm: number, ppq: number, toValue: (g
     const kEnd = Math.floor(b.timeSec * ticksPerSec + 1e-9);
     if (kStart > kEnd) continue;
     if (a.gainDb === b.gainDb) {
-      emit(kStart, toValue(a.gainDb));
+      at(kStart, toValue(a.gainDb));
       continue;
     }
-    const span = b.timeSec - a.timeSec;
-    for (let k = kStart; k <= kEnd; k++) {
-      const u = Math.min(1, Math.max(0, (k / ticksPerSec - a.timeSec) / span));
-      emit(k, toValue(a.gainDb + (b.gainDb - a.gainDb) * u));
+    const dbPerTick = (b.gainDb - a.gainDb) / ((b.timeSec - a.timeSec) * ticksPerSec);
+    const ratio = Math.pow(10, dbPerTick / 40);
+    let x = Math.pow(10, (a.gainDb + dbPerTick * (kStart - a.timeSec * ticksPerSec)) / 40);
+    const xLo = Math.pow(10, Math.min(a.gainDb, b.gainDb) / 40);
+    const xHi = Math.pow(10, Math.max(a.gainDb, b.gainDb) / 40);
+    for (let k = kStart; k <= kEnd; k++, x *= ratio) {
+      const xc = x < xLo ? xLo : x > xHi ? xHi : x;
+      at(k, xc <= xFloor ? 0 : Math.min(fullScale, Math.round(fullScale * xc)));
     }
   }
+  if (pendingValue !== written) visit(pendingTick, pendingValue);
+}
+
+/** `forEachCcChange` as an array. */
+export function ccStream(curve: GainCurve, bpm: number, ppq: number, fullScale = 127): { tick: number; value: number }[] {
+  const out: { tick: number; value: number }[] = [];
+  forEachCcChange(curve, bpm, ppq, fullScale, (tick, value) => out.push({ tick, value }));
   return out;
 }
 
@@ -163,21 +200,20 @@ export function ccStream(curve: GainCurve, bpm: number, ppq: number, toValue: (g
  */
 export function writeMidiCc(lanes: readonly MidiLane[], options: MidiExportOptionsInput = {}, hits: readonly MidiMarker[] = [], title = 'Tuckline'): Uint8Array {
   const o = midiExportOptionsSchema.parse(options);
-  const tracks: number[][] = [];
+  const tracks: Uint8Array[] = [];
   tracks.push(encodeTrack([trackName(title), tempo(o.bpm), timeSignature(o.timeSignature[0], o.timeSignature[1])]));
   for (const lane of lanes) {
-    const floor = lane.curve.floorDb ?? -Infinity;
     const events: TrackEvent[] = [trackName(lane.name)];
     if (o.fourteenBit) {
       let lastMsb = -1;
-      for (const { tick, value } of ccStream(lane.curve, o.bpm, o.ppq, (g) => gainDbToCc14(g, floor))) {
+      forEachCcChange(lane.curve, o.bpm, o.ppq, 16383, (tick, value) => {
         const msb = value >> 7;
         if (msb !== lastMsb) events.push(controlChange(tick, o.channel, o.cc, msb, 3));
         events.push(controlChange(tick, o.channel, o.cc + 32, value & 0x7f, 4));
         lastMsb = msb;
-      }
+      });
     } else {
-      for (const { tick, value } of ccStream(lane.curve, o.bpm, o.ppq, (g) => gainDbToCc7(g, floor))) events.push(controlChange(tick, o.channel, o.cc, value));
+      forEachCcChange(lane.curve, o.bpm, o.ppq, 127, (tick, value) => events.push(controlChange(tick, o.channel, o.cc, value)));
     }
     tracks.push(encodeTrack(events));
   }
