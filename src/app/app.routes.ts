@@ -1,5 +1,6 @@
 import { Routes } from '@angular/router';
 import { authGuard, guestGuard, permissionGuard } from './core/auth/auth.guard';
+import { unsavedEditsGuard } from './song/song-page/unsaved-edits.guard';
 
 export const routes: Routes = [
   {
@@ -28,7 +29,18 @@ export const routes: Routes = [
       {
         path: 'songs/:songId',
         title: 'Song · Tuckline',
+        canDeactivate: [unsavedEditsGuard],
         loadComponent: () => import('./song/song-page/song-page').then((m) => m.SongPage),
+      },
+      {
+        path: 'presets',
+        title: 'Presets · Tuckline',
+        loadComponent: () => import('./presets/presets-library/presets-library').then((m) => m.PresetsLibrary),
+      },
+      {
+        path: 'presets/:presetId',
+        title: 'Preset · Tuckline',
+        loadComponent: () => import('./presets/preset-detail/preset-detail').then((m) => m.PresetDetail),
       },
       {
         path: 'team',
