@@ -14,6 +14,10 @@ export function hitsRoutes(deps: { hits: HitsService; song: RequestHandler }): R
     res.json(await hits.get(songId(req)));
   });
 
+  router.get('/average-kick', deps.song, async (req, res) => {
+    res.json(await hits.averageKick(songId(req)));
+  });
+
   router.post('/detect', requirePermission('prepareSongs'), deps.song, async (req, res) => {
     res.json(await hits.detect(songId(req), body(req, detectRequestSchema)));
   });

@@ -1,5 +1,7 @@
 import type { DetectRequest, HitEdit, HitMapDto } from '../../shared/schemas/hit-map';
+import { averageKick, type AverageKick } from '../../shared/dsp/average-kick';
 import { detectKickFile } from '../audio/kick-detection';
+import { readWavMono } from '../audio/wav-file';
 import type { Database } from '../db/client';
 import { notFound, unprocessable } from '../http/errors';
 import type { StemRow, StemsRepository } from '../stems/stems.repository';
@@ -80,6 +82,22 @@ export function createHitsService(deps: { db: Database; hits: HitsRepository; st
     return get(songId);
   }
 
-  return { get, detect, edit, kickSource, acknowledge: hits.acknowledge };
+  const averages = new Map<string, AverageKick>();
+  /** The kick averaged over its hits (for drawing under the tuck shape); cached per kick revision and hit map. */
+  async function averageKickOf(songId: string): Promise<AverageKick> {
+    const map = await get(songId);
+    const stem = await kickSource(songId);
+    if (stem.format !== 'wav') throw unprocessable('hits.midi_kick', 'A MIDI kick has no waveform to average. Upload the kick as audio to see it under the tuck.');
+    const key = `${stem.id}|${map.updatedAt}`;
+    const cached = averages.get(key);
+    if (cached) return cached;
+    const { info, mono } = await readWavMono(store.pathOf(stem.storageKey));
+    const avg = averageKick(mono, info.sampleRate, map.hits.filter((h) => h.enabled).map((h) => h.timeSec));
+    averages.set(key, avg);
+    if (averages.size > 32) averages.delete(averages.keys().next().value!);
+    return avg;
+  }
+
+  return { get, detect, edit, kickSource, averageKick: averageKickOf, acknowledge: hits.acknowledge };
 }
 export type HitsService = ReturnType<typeof createHitsService>;

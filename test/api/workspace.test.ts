@@ -152,6 +152,17 @@ describe('hit map edits', () => {
     expect(hits.find((h) => h.origin === 'added')?.timeSec).toBeCloseTo(0.2, 6);
   });
 
+  it('serves the kick averaged over its hits, starting at its onset', async () => {
+    const res = await engineer.get(`${base}/hits/average-kick`);
+    expect(res.status).toBe(200);
+    expect(res.body.hitCount).toBeGreaterThan(20);
+    const peak = res.body.rms.indexOf(Math.max(...res.body.rms));
+    const peakMs = res.body.startMs + peak * res.body.stepMs;
+    // The generated kick's body peaks within its first 10 ms (known by construction: 0.5 ms attack, 30 ms sweep).
+    expect(peakMs).toBeGreaterThanOrEqual(0);
+    expect(peakMs).toBeLessThan(10);
+  });
+
   it('refuses an unknown hit id with 404 and changes nothing', async () => {
     const before = (await engineer.get(`${base}/hits`)).body;
     const res = await engineer.patch(`${base}/hits`).send({ update: [{ id: '00000000-0000-4000-8000-000000000000', enabled: false }], add: [{ timeSec: 1 }] });
