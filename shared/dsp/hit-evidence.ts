@@ -51,10 +51,10 @@ export function newHighBandDb(mono: Float32Array, band: LowBand, atSample: numbe
 
 /**
  * Energy jump at a sample: full-band energy of the `windowSec` after over
- * the `windowSec` before, dB. 20 ms spans a period of a 50 Hz body, so the
- * phase of a ringing tail does not sway it.
+ * the `windowSec` before, dB. Short windows (5 ms) favour the sample where
+ * the hit's first energy arrives over one a few ms into its body.
  */
-export function energyJumpDb(x: Float32Array, atSample: number, sampleRateHz: number, windowSec = 0.02): number {
+export function energyJumpDb(x: Float32Array, atSample: number, sampleRateHz: number, windowSec = 0.005): number {
   const w = Math.round(windowSec * sampleRateHz);
   return 10 * Math.log10((meanSquare(x, atSample, atSample + w) + TINY) / (meanSquare(x, atSample - w, atSample) + TINY));
 }

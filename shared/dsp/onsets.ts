@@ -50,17 +50,22 @@ export const DETECTION_TUNING = {
   /** Full-rate AR-AIC: predictor order and ridge. */
   refineOrder: 8,
   refineRidge: 1e-3,
-  /** The 4 kHz picker overrides the full-rate one only when it is this much earlier… */
+  /** The 4 kHz picker is considered only when it disagrees with the full-rate one by this much… */
   disagreeSec: 0.007,
-  /** …and then is searched ± this at full rate. */
+  /** …and then is searched ± this at full rate; a later alternative must raise the energy jump by this much. */
   fineSec: 0.003,
+  laterMarginDb: 0,
+  /** Window of the energy jump that arbitrates between the two pickers. */
+  jumpSec: 0.005,
   /** Kick evidence: sustained new low energy, or a tail hit with nothing new above the band. */
-  minSustainDb: 3,
-  tailMinSustainDb: -0.9,
-  tailMaxHighDb: -1,
-  tailMinInnovationDb: -8,
+  minSustainDb: 4,
+  tailMinSustainDb: -3,
+  tailMaxHighDb: 3,
+  tailMinInnovationDb: -7,
   /** Span after the onset over which a hit's low-band peak (its strength) is measured. */
   strengthSpanSec: 0.04,
+  /** Absolute floor: a hit whose low-band peak stays under −45 dBFS is noise, not a kick worth tucking. */
+  minLowPeakDbfs: -45,
 };
 export type DetectionTuning = typeof DETECTION_TUNING;
 
@@ -79,12 +84,14 @@ export type DetectionTuning = typeof DETECTION_TUNING;
  *    at the energy peak would be late: AR-AIC on the full-rate signal, checked
  *    against a 4 kHz free-running AR-AIC (shared/dsp/onset-refine.ts).
  * 5. Kick evidence (shared/dsp/hit-evidence.ts): the low band must sustain
- *    (≥ 3 dB more energy 15–55 ms after than just before), or — for hits on a
- *    ringing tail — not fall, bring no new energy above the band, and have a
- *    strong prediction error. Snares, claps and hats fail both.
+ *    (≥ 4 dB more energy 15–55 ms after than in the 10 ms before), or — for
+ *    hits on a ringing tail — fall by at most 3 dB, bring little new energy
+ *    above the band (< +3 dB over its low-band energy) and have a prediction
+ *    error within 7 dB of a typical loud hit's. Snares, claps and hats fail both.
  * 6. Minimum gap: of two hits closer than `minGapMs` (less 2 ms of jitter)
  *    the one with the larger rise stays.
  *
+ * A hit whose low-band peak stays under −45 dBFS is dropped (noise).
  * strength = peak |low band| in the 40 ms after the onset ÷ the largest such
  * peak (linear amplitude ratio, 0..1; a ghost note 20 dB down ≈ 0.1).
  * @param mono mono signal, linear full scale ±1
@@ -100,7 +107,24 @@ export function detectOnsets(mono: Float32Array, sampleRateHz: number, options: 
  * detectOnsets with the low band already built (the server builds it block by
  * block while decoding; shared/dsp/low-band.ts). Same units and steps.
  */
-export function detectOnsetsWithLowBand(mono: Float32Array, band: LowBand, sampleRateHz: number, opts: DetectionOptions, tuning: DetectionTuning = DETECTION_TUNING): Hit[] {
+/** What the detector measured for one candidate, for diagnostics (why a hit was kept or dropped). */
+export interface CandidateTrace {
+  sample: number;
+  riseDb: number;
+  innovationDb: number;
+  sustainDb: number;
+  newHighDb: number;
+  kept: boolean;
+}
+
+export function detectOnsetsWithLowBand(
+  mono: Float32Array,
+  band: LowBand,
+  sampleRateHz: number,
+  opts: DetectionOptions,
+  tuning: DetectionTuning = DETECTION_TUNING,
+  trace?: (candidate: CandidateTrace) => void,
+): Hit[] {
   const t = tuning;
   const thresholds = detectionThresholds(opts.sensitivity);
   const hop = Math.max(1, Math.round(t.hopSec * band.rateHz));
@@ -139,28 +163,27 @@ export function detectOnsetsWithLowBand(mono: Float32Array, band: LowBand, sampl
     // the body. Take it when it is clearly earlier, keeps the minimum gap and
     // the energy jumps more there.
     const robust = refineOnsetSample(mono, sampleRateHz, start, end, t.fitSec);
-    if (sample - robust > t.disagreeSec * sampleRateHz && robust - previousEnd >= minGapSamples) {
+    const disagree = Math.abs(sample - robust) > t.disagreeSec * sampleRateHz;
+    if (disagree && robust - previousEnd >= minGapSamples) {
       const half = Math.round(t.fineSec * sampleRateHz);
       const fine = arAicChangePoint(mono, Math.max(start, robust - half), Math.min(end, robust + half), fitSamples, t.refineOrder, t.refineRidge);
-      if (energyJumpDb(mono, fine, sampleRateHz) > energyJumpDb(mono, sample, sampleRateHz)) sample = fine;
+      // Earlier is safer for a tuck, so a later alternative may be asked to win clearly.
+      const margin = fine < sample ? 0 : t.laterMarginDb;
+      if (energyJumpDb(mono, fine, sampleRateHz, t.jumpSec) > energyJumpDb(mono, sample, sampleRateHz, t.jumpSec) + margin) sample = fine;
     }
+    if (lowBandPeak(band, sample, t.strengthSpanSec) < 10 ** (t.minLowPeakDbfs / 20)) continue;
     const sustain = sustainDb(band, Math.floor(sample / band.factor));
-    const isKick =
-      sustain >= t.minSustainDb ||
-      (sustain >= t.tailMinSustainDb && newHighBandDb(mono, band, sample, sampleRateHz) < t.tailMaxHighDb && 10 * Math.log10(frameInnovation / reference) >= t.tailMinInnovationDb);
+    const innovationDb = 10 * Math.log10(frameInnovation / reference);
+    const newHigh = sustain >= t.minSustainDb ? NaN : newHighBandDb(mono, band, sample, sampleRateHz);
+    const isKick = sustain >= t.minSustainDb || (sustain >= t.tailMinSustainDb && newHigh < t.tailMaxHighDb && innovationDb >= t.tailMinInnovationDb);
+    trace?.({ sample, riseDb: odf.riseDb[frame]!, innovationDb, sustainDb: sustain, newHighDb: newHigh, kept: isKick });
     if (!isKick) continue;
     kept.push({ sample, rise: odf.riseDb[frame]! });
     previousEnd = sample + 1;
   }
   const hits = mergeClose(kept, minGapSamples, (h) => h.rise, (h) => h.sample);
 
-  const span = Math.round(t.strengthSpanSec * band.rateHz);
-  const peakAmplitude = hits.map(({ sample }) => {
-    let max = 0;
-    const from = Math.floor(sample / band.factor);
-    for (let i = from; i < Math.min(band.samples.length, from + span); i++) max = Math.max(max, Math.abs(band.samples[i]!));
-    return max;
-  });
+  const peakAmplitude = hits.map(({ sample }) => lowBandPeak(band, sample, t.strengthSpanSec));
   const maxAmplitude = Math.max(...peakAmplitude, 1e-12);
   return hits.map(({ sample }, i) => ({
     timeSec: sample / sampleRateHz,
@@ -168,6 +191,15 @@ export function detectOnsetsWithLowBand(mono: Float32Array, band: LowBand, sampl
     strength: Math.min(1, peakAmplitude[i]! / maxAmplitude),
     enabled: true,
   }));
+}
+
+/** Peak |low band| (linear) in the `spanSec` after a full-rate sample. */
+function lowBandPeak(band: LowBand, sample: number, spanSec: number): number {
+  const from = Math.floor(sample / band.factor);
+  const to = Math.min(band.samples.length, from + Math.round(spanSec * band.rateHz));
+  let max = 0;
+  for (let i = from; i < to; i++) max = Math.max(max, Math.abs(band.samples[i]!));
+  return max;
 }
 
 /** Of items (sorted by position) closer than `gap`, keeps the one with the larger score. */
