@@ -51,7 +51,9 @@ function designPhases(): Float64Array[] {
 
 const phases = designPhases();
 /** Largest Σ|taps| of a phase: no interpolated value exceeds this times the largest |x| under the taps. */
-export const tapGain = Math.max(...phases.map((taps) => taps.reduce((a, b) => a + Math.abs(b), 0)));
+/** Phases 1–3 (phase 0 is the sample itself) in one array: TAPS coefficients each. */
+const flatTaps = Float64Array.from(phases.slice(1).flatMap((taps) => Array.from(taps)));
+const tapGain = Math.max(...phases.map((taps) => taps.reduce((a, b) => a + Math.abs(b), 0)));
 
 /** Samples per block of the search below. */
 const BLOCK = 64;
@@ -85,18 +87,30 @@ export function truePeakLinear(samples: Float32Array): number {
   const half = TAPS / 2;
   for (const b of order) {
     if (reach[b] * tapGain <= peak) break;
-    const end = Math.min(n, (b + 1) * BLOCK);
-    for (let i = b * BLOCK; i < end; i++) {
-      for (let p = 1; p < PHASES; p++) {
-        const taps = phases[p];
-        let acc = 0;
-        const j0 = i + half;
-        for (let k = 0; k < TAPS; k++) {
-          const j = j0 - k;
-          if (j >= 0 && j < n) acc += taps[k] * samples[j];
+    const first = b * BLOCK;
+    const end = Math.min(n, first + BLOCK);
+    for (let i = first; i < end; i++) {
+      const top = i + half;
+      if (top - (TAPS - 1) >= 0 && top < n) {
+        // Interior: all taps inside the signal, no bounds checks (the hot loop).
+        for (let p = 0; p < PHASES - 1; p++) {
+          const o = p * TAPS;
+          let acc = 0;
+          for (let k = 0; k < TAPS; k++) acc += flatTaps[o + k] * samples[top - k];
+          const a = acc < 0 ? -acc : acc;
+          if (a > peak) peak = a;
         }
-        const a = acc < 0 ? -acc : acc;
-        if (a > peak) peak = a;
+      } else {
+        for (let p = 0; p < PHASES - 1; p++) {
+          const o = p * TAPS;
+          let acc = 0;
+          for (let k = 0; k < TAPS; k++) {
+            const j = top - k;
+            if (j >= 0 && j < n) acc += flatTaps[o + k] * samples[j];
+          }
+          const a = acc < 0 ? -acc : acc;
+          if (a > peak) peak = a;
+        }
       }
     }
   }
