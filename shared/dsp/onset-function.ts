@@ -42,19 +42,40 @@ export function predictionOnsetFunction(x: Float32Array, hopSamples: number, fit
   const riseDb = new Float32Array(frames);
   const energy = new Float64Array(frames);
   const innovation = new Float64Array(frames);
-  const p = ORDER;
+  const p = ORDER; // the unrolled loops below assume 4
   const epsilon = 1e-8;
   // Running sums over the fitting window of products x[i−j]·x[i−k], j,k = 0..p,
   // for i in [s − fit, s): entry (j,k) at j·(p+1)+k.
   const dim = p + 1;
   const sums = new Float64Array(dim * dim);
+  // Unrolled for order 4 (the 15 distinct products of x[i..i−4]); this loop
+  // runs twice per low-band sample.
   const addTerm = (i: number, sign: number): void => {
     if (i - p < 0) return;
-    for (let j = 0; j < dim; j++) {
-      const xj = x[i - j]!;
-      for (let k = j; k < dim; k++) sums[j * dim + k]! += sign * xj * x[i - k]!;
-    }
+    const x0 = x[i]!;
+    const x1 = x[i - 1]!;
+    const x2 = x[i - 2]!;
+    const x3 = x[i - 3]!;
+    const x4 = x[i - 4]!;
+    sums[0]! += sign * x0 * x0;
+    sums[1]! += sign * x0 * x1;
+    sums[2]! += sign * x0 * x2;
+    sums[3]! += sign * x0 * x3;
+    sums[4]! += sign * x0 * x4;
+    sums[6]! += sign * x1 * x1;
+    sums[7]! += sign * x1 * x2;
+    sums[8]! += sign * x1 * x3;
+    sums[9]! += sign * x1 * x4;
+    sums[12]! += sign * x2 * x2;
+    sums[13]! += sign * x2 * x3;
+    sums[14]! += sign * x2 * x4;
+    sums[18]! += sign * x3 * x3;
+    sums[19]! += sign * x3 * x4;
+    sums[24]! += sign * x4 * x4;
   };
+  // Index into `sums` of entry (j+1, k+1) of the normal matrix, j,k = 0..p−1 (upper triangle).
+  const upper = new Int32Array(p * p);
+  for (let j = 0; j < p; j++) for (let k = 0; k < p; k++) upper[j * p + k] = (Math.min(j, k) + 1) * dim + Math.max(j, k) + 1;
   const a = new Float64Array(p);
   const m = new Float64Array(p * p);
   const rhs = new Float64Array(p);
@@ -70,11 +91,7 @@ export function predictionOnsetFunction(x: Float32Array, hopSamples: number, fit
     // Normal equations: Σ x[i−j]x[i−k] a_k = Σ x[i]x[i−j], j,k = 1..p.
     let trace = 0;
     for (let j = 0; j < p; j++) {
-      for (let k = 0; k < p; k++) {
-        const jj = Math.min(j, k) + 1;
-        const kk = Math.max(j, k) + 1;
-        m[j * p + k] = sums[jj * dim + kk]!;
-      }
+      for (let k = 0; k < p; k++) m[j * p + k] = sums[upper[j * p + k]!]!;
       rhs[j] = sums[j + 1]!;
       trace += m[j * p + j]!;
     }
@@ -85,7 +102,7 @@ export function predictionOnsetFunction(x: Float32Array, hopSamples: number, fit
     let err = sums[0]!;
     for (let j = 0; j < p; j++) {
       err -= 2 * a[j]! * rhs[j]!;
-      for (let k = 0; k < p; k++) err += a[j]! * a[k]! * sums[(Math.min(j, k) + 1) * dim + Math.max(j, k) + 1]!;
+      for (let k = 0; k < p; k++) err += a[j]! * a[k]! * sums[upper[j * p + k]!]!;
     }
     const before = count > 0 ? Math.max(0, err) / count : 0;
     let after = 0;

@@ -10,7 +10,7 @@
  * coarse grid keeps the cost at N/stride small sorts).
  * @returns one median per frame, same units as `values`
  */
-export function movingMedian(values: Float32Array, radius: number, stride = 20): Float32Array {
+export function movingMedian(values: Float32Array, radius: number, stride = 50): Float32Array {
   const n = values.length;
   const out = new Float32Array(n);
   const scratch = new Float32Array(2 * radius + 1);
