@@ -12,6 +12,7 @@ import { toApiFailure } from '../../core/http/api-error';
 import { SongFormDialog, SongFormDialogData } from '../../songs/song-form-dialog/song-form-dialog';
 import { ConfirmDialog, ConfirmDialogData } from '../../ui/confirm-dialog/confirm-dialog';
 import { Icon } from '../../ui/icon/icon';
+import { CheckPanel } from '../check-panel/check-panel';
 import { ExportPanel } from '../export-panel/export-panel';
 import { HitsPanel } from '../hits-panel/hits-panel';
 import { StemsPanel } from '../stems-panel/stems-panel';
@@ -23,7 +24,7 @@ import { WorkspaceStore } from '../workspace/workspace-store';
 
 @Component({
   selector: 'tl-song-page',
-  imports: [RouterLink, MatButtonModule, MatProgressBarModule, Icon, StepBar, Timeline, StemsPanel, HitsPanel, TuckPanel, ExportPanel],
+  imports: [RouterLink, MatButtonModule, MatProgressBarModule, Icon, StepBar, Timeline, StemsPanel, HitsPanel, TuckPanel, CheckPanel, ExportPanel],
   providers: [WorkspaceStore],
   templateUrl: './song-page.html',
   styleUrl: './song-page.scss',
