@@ -16,6 +16,23 @@ export const routes: Routes = [
     loadComponent: () => import('./auth/sign-up/sign-up').then((m) => m.SignUp),
   },
   {
+    path: 'reset-password',
+    title: 'Reset your password · Tuckline',
+    canActivate: [guestGuard],
+    loadComponent: () => import('./auth/reset-request/reset-request').then((m) => m.ResetRequest),
+  },
+  {
+    path: 'reset-password/:token',
+    title: 'Choose a new password · Tuckline',
+    loadComponent: () => import('./auth/reset-confirm/reset-confirm').then((m) => m.ResetConfirm),
+  },
+  {
+    // Public: the e-mailed link works signed in or not.
+    path: 'invitations/:token',
+    title: 'Invitation · Tuckline',
+    loadComponent: () => import('./invitations/invitation-accept/invitation-accept').then((m) => m.InvitationAccept),
+  },
+  {
     path: '',
     canActivate: [authGuard],
     loadComponent: () => import('./shell/shell').then((m) => m.Shell),
@@ -47,6 +64,17 @@ export const routes: Routes = [
         title: 'Team · Tuckline',
         canActivate: [permissionGuard('manageMembers')],
         loadComponent: () => import('./team/team-members/team-members').then((m) => m.TeamMembers),
+      },
+      {
+        path: 'audit',
+        title: 'Audit trail · Tuckline',
+        canActivate: [permissionGuard('viewAudit')],
+        loadComponent: () => import('./audit/audit-trail/audit-trail').then((m) => m.AuditTrail),
+      },
+      {
+        path: 'settings',
+        title: 'Team settings · Tuckline',
+        loadComponent: () => import('./team/team-settings/team-settings').then((m) => m.TeamSettings),
       },
     ],
   },

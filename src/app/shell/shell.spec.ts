@@ -24,15 +24,15 @@ describe('Shell navigation', () => {
   }
   const navLabels = (el: HTMLElement) => Array.from(el.querySelectorAll('mat-nav-list a')).map((a) => a.textContent?.trim());
 
-  it('hides Team from an assistant', async () => {
+  it('hides Team and the audit trail from an assistant', async () => {
     const el = await renderAs('assistant');
-    expect(navLabels(el)).toEqual(['Songs']);
+    expect(navLabels(el)).toEqual(['Songs', 'Presets', 'Settings']);
     expect(el.querySelector('tl-role-chip')?.textContent?.trim()).toBe('assistant');
   });
 
-  it('shows Team to an owner', async () => {
+  it('shows Team and the audit trail to an owner', async () => {
     const el = await renderAs('owner');
-    expect(navLabels(el)).toEqual(['Songs', 'Team']);
+    expect(navLabels(el)).toEqual(['Songs', 'Presets', 'Team', 'Audit trail', 'Settings']);
   });
 
   it('offers a team switcher only to members of several teams', async () => {
@@ -41,10 +41,10 @@ describe('Shell navigation', () => {
     expect(single.querySelector('.team-name')?.textContent).toContain('Saltmarsh Sound Room');
   });
 
-  it('lists Team for owners only', () => {
-    expect(navItemsFor('engineer').map((i) => i.label)).toEqual(['Songs']);
-    expect(navItemsFor(null).map((i) => i.label)).toEqual(['Songs']);
-    expect(navItemsFor('owner').map((i) => i.path)).toEqual(['/songs', '/team']);
+  it('lists Team and the audit trail for owners only, Presets for every role', () => {
+    expect(navItemsFor('engineer').map((i) => i.label)).toEqual(['Songs', 'Presets', 'Settings']);
+    expect(navItemsFor(null).map((i) => i.label)).toEqual(['Songs', 'Presets']);
+    expect(navItemsFor('owner').map((i) => i.path)).toEqual(['/songs', '/presets', '/team', '/audit', '/settings']);
   });
 });
 

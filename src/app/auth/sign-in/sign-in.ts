@@ -33,6 +33,9 @@ export class SignIn {
   protected readonly busy = signal(false);
   protected readonly formError = signal<string | null>(null);
   protected readonly fieldError = fieldError;
+  protected readonly notice = signal(
+    this.route.snapshot.queryParamMap.get('notice') === 'password-reset' ? 'Your password is changed. Sign in with the new one.' : null,
+  );
 
   protected submit(): void {
     this.formError.set(null);

@@ -66,6 +66,22 @@ export class AuthService {
     );
   }
 
+  /** Takes a session the server answered elsewhere (accepting an invitation signs the user in). */
+  adopt(body: unknown): Session {
+    return this.accept(body);
+  }
+
+  /** Loads the session again (after a team was renamed or joined). */
+  refresh(): Observable<Session | null> {
+    return this.http
+      .get<unknown>('/api/auth/me', { context: new HttpContext().set(INLINE_ERRORS, true) })
+      .pipe(
+        map((body) => sessionSchema.parse(body)),
+        catchError(() => of(null)),
+        tap((session) => this.sessionState.set(session)),
+      );
+  }
+
   /** Forgets the session locally (after a 401 or a sign-out). */
   clear(): void {
     this.sessionState.set(null);

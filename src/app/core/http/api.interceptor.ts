@@ -21,7 +21,8 @@ export const apiInterceptor: HttpInterceptorFn = (req, next) => {
     catchError((err: unknown) => {
       if (err instanceof HttpErrorResponse) {
         const inline = req.context.get(INLINE_ERRORS);
-        if (err.status === 401 && !req.url.startsWith('/api/auth/')) {
+        // Sign-in and the public invitation routes answer 401 for a wrong password, not for an ended session.
+        if (err.status === 401 && !req.url.startsWith('/api/auth/') && !req.url.startsWith('/api/invitations/')) {
           auth.clear();
           void router.navigate(['/sign-in'], { queryParams: { returnUrl: router.url } });
           snackBar.open('Your session has ended. Sign in again to carry on.', 'OK', { duration: 6000 });

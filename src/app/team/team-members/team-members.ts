@@ -17,10 +17,11 @@ import { toApiFailure } from '../../core/http/api-error';
 import { ConfirmDialog, ConfirmDialogData } from '../../ui/confirm-dialog/confirm-dialog';
 import { Icon } from '../../ui/icon/icon';
 import { RoleChip } from '../../ui/role-chip/role-chip';
+import { TeamInvitations } from '../team-invitations/team-invitations';
 
 @Component({
   selector: 'tl-team-members',
-  imports: [DatePipe, MatTableModule, MatSelectModule, MatFormFieldModule, MatButtonModule, MatProgressBarModule, MatTooltipModule, Icon, RoleChip],
+  imports: [DatePipe, MatTableModule, MatSelectModule, MatFormFieldModule, MatButtonModule, MatProgressBarModule, MatTooltipModule, Icon, RoleChip, TeamInvitations],
   templateUrl: './team-members.html',
   styleUrl: './team-members.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,

@@ -21,6 +21,16 @@ export const icons = {
   search: 'M10.5 17a6.5 6.5 0 1 0 0-13 6.5 6.5 0 0 0 0 13zM15.5 15.5l4.5 4.5',
   tuck: 'M3 8h5.5l2.5 8.5h2L15.5 8H21',
   person: 'M12 11.5a3.5 3.5 0 1 0 0-7 3.5 3.5 0 0 0 0 7zM5 20c0-3.6 3.1-6 7-6s7 2.4 7 6',
+  presets: 'M4 6.5h16v11H4zM6.5 10h2l1.5 4h1.5l1.5-4h4.5',
+  audit: 'M7 4.5h10v15H7zM10 8.5h4M10 12h4M10 15.5h2.5M4.5 7v10',
+  settings: 'M4.5 7h9M17.5 7h2M4.5 12h3M11.5 12h8M4.5 17h7M15.5 17h4M15.5 5v4M9.5 10v4M13.5 15v4',
+  edit: 'M5 19l1-4.2L15.8 5a1.6 1.6 0 0 1 2.3 0l.9.9a1.6 1.6 0 0 1 0 2.3L9.2 18zM13.5 7.3l3.2 3.2',
+  copy: 'M8.5 8.5h10v11h-10zM5.5 15.5v-11h10',
+  download: 'M12 4.5v11M7.5 11l4.5 4.5 4.5-4.5M5 19.5h14',
+  more: 'M12 6.5v.01M12 12v.01M12 17.5v.01',
+  grid: 'M4.5 4.5h6v6h-6zM13.5 4.5h6v6h-6zM4.5 13.5h6v6h-6zM13.5 13.5h6v6h-6z',
+  list: 'M8.5 7h11M8.5 12h11M8.5 17h11M4.5 7h.01M4.5 12h.01M4.5 17h.01',
+  mail: 'M4 6.5h16v11H4zM4.5 7l7.5 6 7.5-6',
 } as const;
 
 export type IconName = keyof typeof icons;
