@@ -11,7 +11,7 @@ const db = (v: number | null | undefined, unit: string) => (v == null || !Number
  */
 export function reportHtml(song: Song, report: HeadroomReportDto): string {
   const figures = (label: string, f: HeadroomReportDto['sum']['before']) =>
-    `<td>${label}</td><td>${db(f.samplePeakDbfs, 'dBFS')}</td><td>${db(f.truePeakDbtp, 'dBTP')}</td><td>${db(f.integratedLufs, 'LUFS')}</td><td>${db(f.maxShortTermLufs, 'LUFS')}</td>`;
+    `<td class="label">${label}</td><td>${db(f.samplePeakDbfs, 'dBFS')}</td><td>${db(f.truePeakDbtp, 'dBTP')}</td><td>${db(f.integratedLufs, 'LUFS')}</td><td>${db(f.maxShortTermLufs, 'LUFS')}</td>`;
   const laneRows = report.lanes
     .map((l) => `<tr><th rowspan="2">${escape(l.name)}</th>${figures('before', l.before)}</tr><tr>${figures('after', l.after)}</tr>`)
     .join('');
@@ -21,7 +21,7 @@ export function reportHtml(song: Song, report: HeadroomReportDto): string {
 <style>
 body{font-family:'Source Sans 3',Arial,sans-serif;color:#111a24;max-width:760px;margin:32px auto;font-variant-numeric:tabular-nums}
 h1{font-size:22px;margin:0}h2{font-size:16px;margin-top:28px}p.meta{color:#4a5563;margin:4px 0 16px}
-table{border-collapse:collapse;width:100%}th,td{border-bottom:1px solid #d5dbe3;padding:6px 8px;text-align:right}th:first-child,td:first-child{text-align:left}
+table{border-collapse:collapse;width:100%}th,td{border-bottom:1px solid #d5dbe3;padding:6px 8px;text-align:right}th:first-child,td:first-child,td.label{text-align:left}
 .big{font-size:28px;font-weight:700;color:#0f6c75}@media print{body{margin:0}}
 </style></head><body>
 <h1>Headroom report — ${escape(song.title)}</h1>

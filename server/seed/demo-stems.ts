@@ -25,6 +25,12 @@ export interface DemoStems {
   durationSec: number;
 }
 
+/**
+ * Peak level of the sub, full scale = 1. With the kick's body at about 0.55, kick
+ * plus sub peak near −1 dBFS before any tuck, like a bounce gain-staged by hand.
+ */
+export const SUB_LEVEL = 0.5;
+
 /** Trap-style kick pattern on 16ths: 1, the "and" of 2, 3 — common practice, no source. */
 export const trapPattern = [0, 6, 10];
 
@@ -74,7 +80,7 @@ export function renderDemoStems(options: DemoStemOptions): DemoStems {
         const body = Math.sin(phase) * Math.exp(-t / 0.12);
         const click = (random() * 2 - 1) * Math.exp(-t / 0.002) * 0.3;
         const release = Math.min(1, (kickLen - n) / (0.05 * sampleRate));
-        kickL[start + n] += velocity * attack * release * (body + click) * 0.8;
+        kickL[start + n] += velocity * attack * release * (body + click) * 0.6;
       }
       // Sub: a sine at the bass note, attacked with the kick and held to the next step.
       if (!silent.has(bar)) {
@@ -85,7 +91,7 @@ export function renderDemoStems(options: DemoStemOptions): DemoStems {
           const t = n / sampleRate;
           p += (2 * Math.PI * subHz) / sampleRate;
           const env = Math.min(1, n / (0.002 * sampleRate)) * Math.exp(-t / 0.6) * Math.min(1, (subLen - n) / (0.005 * sampleRate));
-          bass[start + n] += 0.7 * env * Math.sin(p);
+          bass[start + n] += SUB_LEVEL * env * Math.sin(p);
         }
       }
     }
