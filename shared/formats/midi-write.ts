@@ -1,7 +1,7 @@
 import type { GainCurve } from '../dsp/gain-curve';
 import { midiExportOptionsSchema, type MidiExportOptionsInput } from '../schemas/export-options';
 import { secondsToTicks } from './bar-beat';
-import { encodeVlq } from './vlq';
+import { encodeVlq, writeVlq } from './vlq';
 
 /**
  * Gain → 7-bit controller value: v = round(127 · 10^(G/40)), 0 at or below the
@@ -96,7 +96,7 @@ function encodeTrack(events: TrackEvent[]): Uint8Array {
   let at = 8;
   let now = 0;
   for (const e of order) {
-    for (const b of encodeVlq(e.tick - now)) out[at++] = b;
+    at = writeVlq(out, at, e.tick - now);
     for (let k = 0; k < e.bytes.length; k++) out[at++] = e.bytes[k];
     now = e.tick;
   }

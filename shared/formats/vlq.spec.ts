@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { decodeVlq, encodeVlq } from './vlq';
+import { decodeVlq, encodeVlq, writeVlq } from './vlq';
 
 // The Standard MIDI File 1.0 spec's own table (MMA RP-001; REFERENCES.md "The spec's VLQ table").
 const SPEC_TABLE: [number, number[]][] = [
@@ -21,6 +21,9 @@ describe('VLQ', () => {
   it.each(SPEC_TABLE)('encodes 0x%s as in the SMF spec table', (value, bytes) => {
     expect(encodeVlq(value)).toEqual(bytes);
     expect(decodeVlq(bytes)).toEqual({ value, length: bytes.length });
+    const out = new Uint8Array(6);
+    expect(writeVlq(out, 1, value)).toBe(1 + bytes.length);
+    expect(Array.from(out.subarray(1, 1 + bytes.length))).toEqual(bytes);
   });
 
   it('refuses values outside 0 … 0x0FFFFFFF (the spec allows 4 bytes)', () => {

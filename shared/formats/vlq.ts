@@ -25,3 +25,16 @@ export function decodeVlq(bytes: ArrayLike<number>, offset = 0): { value: number
   }
   throw new RangeError('VLQ longer than 4 bytes');
 }
+
+/** Writes the VLQ of `value` into `out` at `at` (no allocation); returns the index after it. */
+export function writeVlq(out: Uint8Array, at: number, value: number): number {
+  if (value < 0x80) {
+    out[at] = value;
+    return at + 1;
+  }
+  let n = 1;
+  for (let v = value >>> 7; v > 0; v >>>= 7) n++;
+  if (n > 4 || !Number.isInteger(value)) throw new RangeError(`VLQ out of range: ${value}`);
+  for (let i = n - 1, v = value; i >= 0; i--, v >>>= 7) out[at + i] = (v & 0x7f) | (i === n - 1 ? 0 : 0x80);
+  return at + n;
+}

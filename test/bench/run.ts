@@ -1,27 +1,37 @@
 /**
- * `npm run bench`: runs the detection benchmark (E1's, test/bench/detection.bench.ts,
- * imported dynamically so a missing one is noted, not fatal) and the stamping
- * benchmark, prints a table and writes docs/benchmarks.md.
+ * `npm run bench`: runs the detection and headroom-report benchmarks
+ * (test/bench/detection.bench.ts, report.bench.ts, imported dynamically so a
+ * missing one is noted, not fatal) and the stamping benchmark, prints a table
+ * and writes docs/benchmarks.md.
  */
 import { cpus, loadavg } from 'node:os';
 import { writeFileSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { benchStamp, type BenchSection } from './stamp.bench';
+import type { BenchSection } from './api';
+import { benchStamp } from './stamp.bench';
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '../..');
 
-async function detectionSection(): Promise<BenchSection> {
+/**
+ * Other engineers' benchmarks, imported dynamically (variable specifiers: a
+ * missing file must neither stop type-checking nor the run; it is noted).
+ */
+const OPTIONAL: { specifier: string; fn: string; title: string }[] = [
+  { specifier: './detection.bench.ts', fn: 'benchDetection', title: 'Kick detection' },
+  { specifier: './report.bench.ts', fn: 'benchReport', title: 'Headroom report' },
+];
+
+async function optionalSection(o: (typeof OPTIONAL)[number]): Promise<BenchSection> {
   try {
-    // A variable specifier: the file is E1's and may not exist yet, which must not stop type-checking.
-    const specifier = './detection.bench.ts';
-    const mod = (await import(specifier)) as { benchDetection?: () => Promise<BenchSection> };
-    if (typeof mod.benchDetection !== 'function') throw new Error('test/bench/detection.bench.ts has no benchDetection()');
-    return await mod.benchDetection();
+    const mod = (await import(o.specifier)) as Record<string, unknown>;
+    const run = mod[o.fn];
+    if (typeof run !== 'function') throw new Error(`test/bench/${o.specifier.slice(2)} has no ${o.fn}()`);
+    return await (run as () => Promise<BenchSection>)();
   } catch (e) {
     const err = e as NodeJS.ErrnoException;
-    const why = err.code === 'ERR_MODULE_NOT_FOUND' ? 'test/bench/detection.bench.ts is missing' : `failed: ${String(err.message).split('\n')[0]}`;
-    return { title: 'Kick detection', rows: [{ name: 'detection benchmark', value: 'not run', note: why }] };
+    const why = err.code === 'ERR_MODULE_NOT_FOUND' ? `test/bench/${o.specifier.slice(2)} is missing` : `failed: ${String(err.message).split('\n')[0]}`;
+    return { title: o.title, rows: [{ name: `${o.fn}()`, value: 'not run', note: why }] };
   }
 }
 
@@ -34,7 +44,7 @@ function table(section: BenchSection): string {
 const started = new Date();
 const loadBefore = loadavg()[0];
 const sections: BenchSection[] = [];
-sections.push(await detectionSection());
+for (const o of OPTIONAL) sections.push(await optionalSection(o));
 sections.push(await benchStamp());
 
 const cpu = cpus();

@@ -10,12 +10,8 @@ import { writeBreakpointCsv } from '../../shared/formats/csv-write';
 import { writeMidiCc } from '../../shared/formats/midi-write';
 import { tuckShapeSchema } from '../../shared/schemas/tuck-shape';
 import type { Hit } from '../../shared/schemas/hit';
+import type { BenchSection } from './api';
 
-/** Same shape as test/bench/api.ts's BenchSection (E1's contract). */
-export interface BenchSection {
-  title: string;
-  rows: { name: string; value: string; note?: string }[];
-}
 
 /** A 128 BPM four-to-the-floor part with a double kick (1/16 later) every second bar: `count` hits. */
 export function benchHits(count: number): Hit[] {
