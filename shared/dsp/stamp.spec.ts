@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import type { Hit } from '../schemas/hit';
 import { tuckShapeSchema } from '../schemas/tuck-shape';
 import { gainDbAt } from './gain';
-import { buildTuckTemplate } from './slope-guard';
+import { buildTuckTemplate, slopeCaps } from './slope-guard';
 import { stampHits } from './stamp';
 
 const shape = tuckShapeSchema.parse({ points: [{ tMs: -3, gainDb: 0 }, { tMs: 0, gainDb: -40 }, { tMs: 50, gainDb: -40 }, { tMs: 150, gainDb: 0 }], slopeGuardMs: 5 });
@@ -75,5 +75,43 @@ describe('stampHits', () => {
   it('a base gain at or below the floor leaves the lane at the floor', () => {
     const r = stampHits([hit(1)], shape, { durationSec: 2, baseGainDb: -70 });
     expect(r.curve.points.every((p) => p.gainDb === -60)).toBe(true);
+  });
+
+  it('property: merged curves keep the dB slope cap and the floor, and each hit is at least as deep as its own tuck (random shapes and hit patterns; known by construction)', () => {
+    let seed = 99;
+    const r = () => {
+      seed = (seed * 1664525 + 1013904223) % 4294967296;
+      return seed / 4294967296;
+    };
+    let worstRatio = 0;
+    let belowFloor = 0;
+    let shallowAtHit = 0;
+    let missingHitPoint = 0;
+    for (let k = 0; k < 80; k++) {
+      const times = new Set<number>([-(0.5 + r() * 15), 0, 5 + r() * 200]);
+      while (times.size < 3 + Math.floor(r() * 4)) times.add(Math.round((-15 + r() * 250) * 10) / 10);
+      const points = [...times].sort((a, b) => a - b).map((tMs) => ({ tMs, gainDb: tMs === 0 ? -10 - r() * 60 : -r() * 50, curve: r() < 0.5 ? ('linear' as const) : ('smooth' as const) }));
+      const sh = tuckShapeSchema.parse({ points, slopeGuardMs: 1 + r() * 15, floorDb: -40 - r() * 40 });
+      const base = -12 + r() * 18;
+      const hits: Hit[] = [];
+      for (let t = 0.02; t < 4; t += 0.01 + r() * 0.3) hits.push({ timeSec: t, strength: 1, enabled: r() < 0.9, depthDb: r() < 0.2 ? -r() * 40 : null });
+      const { curve } = stampHits(hits, sh, { durationSec: 4, baseGainDb: base });
+      const caps = slopeCaps(sh, base);
+      const p = curve.points;
+      for (let i = 1; i < p.length; i++) worstRatio = Math.max(worstRatio, Math.abs(p[i].gainDb - p[i - 1].gainDb) / ((p[i].timeSec - p[i - 1].timeSec) * 1000) / caps.dbPerMs);
+      belowFloor += p.filter((q) => q.gainDb < sh.floorDb - 1e-9).length;
+      for (const h of hits) {
+        if (!h.enabled) continue;
+        const own = buildTuckTemplate(sh, { baseGainDb: base, depthDb: h.depthDb });
+        const i0 = own.tMs.indexOf(0);
+        if (i0 < 0) missingHitPoint++;
+        const at0 = own.gainDb[i0];
+        if (gainDbAt(curve, h.timeSec) > base + at0 + 1e-9) shallowAtHit++;
+      }
+    }
+    expect(worstRatio).toBeLessThanOrEqual(1 + 1e-9);
+    expect(belowFloor).toBe(0);
+    expect(shallowAtHit).toBe(0);
+    expect(missingHitPoint).toBe(0);
   });
 });
