@@ -26,6 +26,8 @@ export interface LowBand {
 /** Streaming state of a low-band builder; feed blocks in order with pushLowBand. */
 export interface LowBandBuilder {
   factor: number;
+  /** 2 when the factor is even: pairs are averaged before the anti-alias filter. */
+  preFactor: number;
   rateHz: number;
   antiAlias: Biquad[];
   antiAliasState: Float64Array;
@@ -36,6 +38,8 @@ export interface LowBandBuilder {
   /** Full-rate samples seen so far. */
   consumed: number;
   scratch: Float32Array;
+  /** A full-rate sample waiting for its pair (NaN when none). */
+  pending: number;
 }
 
 /**
@@ -47,10 +51,12 @@ export interface LowBandBuilder {
 export function createLowBandBuilder(sampleRateHz: number, totalFrames: number, bandHz: number): LowBandBuilder {
   const factor = Math.max(1, Math.floor(sampleRateHz / TARGET_RATE_HZ));
   const rateHz = sampleRateHz / factor;
-  const antiAlias = biquadLowpassCascade(ANTI_ALIAS_HZ, sampleRateHz, ANTI_ALIAS_ORDER);
+  const preFactor = factor % 2 === 0 ? 2 : 1;
+  const antiAlias = biquadLowpassCascade(ANTI_ALIAS_HZ, sampleRateHz / preFactor, ANTI_ALIAS_ORDER);
   const band = biquadLowpassCascade(bandHz, rateHz, BAND_ORDER);
   return {
     factor,
+    preFactor,
     rateHz,
     antiAlias,
     antiAliasState: cascadeState(antiAlias),
@@ -60,21 +66,38 @@ export function createLowBandBuilder(sampleRateHz: number, totalFrames: number, 
     written: 0,
     consumed: 0,
     scratch: new Float32Array(0),
+    pending: NaN,
   };
 }
 
 /** Filters and decimates one block of the full-rate mono signal (linear) into the builder. */
 export function pushLowBand(builder: LowBandBuilder, block: Float32Array): void {
-  if (builder.scratch.length < block.length) builder.scratch = new Float32Array(block.length);
-  const work = builder.scratch.subarray(0, block.length);
-  work.set(block);
+  const pre = builder.preFactor;
+  // Pre-decimation by 2 with a pair mean (a 2-tap boxcar: its null at fs/2
+  // puts what folds onto the band ≥ 40 dB down), so the anti-alias biquads
+  // run at half rate. A sample left over from an odd-length block waits in
+  // `pending` for its partner.
+  const hasPending = pre === 2 && !Number.isNaN(builder.pending);
+  const total = block.length + (hasPending ? 1 : 0);
+  const n = Math.floor(total / pre);
+  if (builder.scratch.length < n) builder.scratch = new Float32Array(n);
+  const work = builder.scratch.subarray(0, n);
+  if (pre === 2) {
+    const at = (j: number): number => (hasPending ? (j === 0 ? builder.pending : block[j - 1]!) : block[j]!);
+    let i = 0;
+    if (hasPending && n > 0) work[i++] = 0.5 * (builder.pending + block[0]!);
+    const o = hasPending ? 1 : 0;
+    for (; i < n; i++) work[i] = 0.5 * (block[2 * i - o]! + block[2 * i + 1 - o]!);
+    builder.pending = total % 2 === 1 ? at(total - 1) : NaN;
+  } else work.set(block);
   processCascadeInPlace(builder.antiAlias, builder.antiAliasState, work);
-  const d = builder.factor;
-  // Keep the samples whose full-rate index is a multiple of D.
-  let i = (d - (builder.consumed % d)) % d;
+  const d = builder.factor / pre;
+  const consumed = builder.consumed / pre;
+  // Keep the samples whose (pre-decimated) index is a multiple of D.
+  let i = (d - (consumed % d)) % d;
   const start = builder.written;
   for (; i < work.length && builder.written < builder.out.length; i += d) builder.out[builder.written++] = work[i]!;
-  builder.consumed += block.length;
+  builder.consumed += n * pre;
   processCascadeInPlace(builder.band, builder.bandState, builder.out.subarray(start, builder.written));
 }
 
@@ -86,7 +109,7 @@ export function finishLowBand(builder: LowBandBuilder): LowBand {
 /** The low band of a whole signal in one call (same filters as the streaming builder). */
 export function lowBandOf(mono: Float32Array, sampleRateHz: number, bandHz: number): LowBand {
   const builder = createLowBandBuilder(sampleRateHz, mono.length, bandHz);
-  const step = 1 << 16;
+  const step = 1 << 16; // even, so blocks hold whole pairs
   for (let i = 0; i < mono.length; i += step) pushLowBand(builder, mono.subarray(i, i + step));
   return finishLowBand(builder);
 }

@@ -32,20 +32,34 @@ export function aicChangePoint(x: Float32Array, startSample: number, endSample: 
   }
   const totalSum = sum[n]!;
   const totalSq = sumSq[n]!;
-  let best = a;
-  let bestAic = Infinity;
-  for (let k = 2; k <= n - 2; k++) {
+  const aicAt = (k: number): number => {
     const m1 = sum[k]! / k;
     const v1 = sumSq[k]! / k - m1 * m1;
     const k2 = n - k;
     const m2 = (totalSum - sum[k]!) / k2;
     const v2 = (totalSq - sumSq[k]!) / k2 - m2 * m2;
-    const aic = k * Math.log(v1 > 1e-20 ? v1 : 1e-20) + k2 * Math.log(v2 > 1e-20 ? v2 : 1e-20);
-    if (aic < bestAic) {
-      bestAic = aic;
-      best = a + k;
+    return k * Math.log(v1 > 1e-20 ? v1 : 1e-20) + k2 * Math.log(v2 > 1e-20 ? v2 : 1e-20);
+  };
+  // Coarse pass every `stride` samples, then every sample around the best:
+  // the AIC curve is smooth at the scale of a few samples, and logs are the cost.
+  const stride = Math.max(1, Math.floor(n / 512));
+  let bestK = 2;
+  let bestAic = Infinity;
+  for (let k = 2; k <= n - 2; k += stride) {
+    const v = aicAt(k);
+    if (v < bestAic) {
+      bestAic = v;
+      bestK = k;
     }
   }
+  for (let k = Math.max(2, bestK - stride); k <= Math.min(n - 2, bestK + stride); k++) {
+    const v = aicAt(k);
+    if (v < bestAic) {
+      bestAic = v;
+      bestK = k;
+    }
+  }
+  const best = a + bestK;
   return best;
 }
 
