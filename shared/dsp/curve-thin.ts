@@ -24,19 +24,12 @@ const TOLERANCE_SHARE = 0.85;
  */
 export function thinCurve(curve: GainCurve, opts: ThinOptions = {}): GainCurve {
   const ignoreBelow = opts.ignoreBelowDb ?? -40;
-  const pts = withCrossings(curve.points, ignoreBelow);
-  const n = pts.length;
-  if (n <= 2) return { ...curve, points: pts.slice() };
+  if (curve.points.length <= 2) return { ...curve, points: curve.points.slice() };
+  const { t, g, n } = withCrossings(curve.points, ignoreBelow);
   const tol = (opts.toleranceDb ?? 0.5) * TOLERANCE_SHARE;
   const ratioTol = Math.pow(10, tol / 20);
-  const t = new Float64Array(n);
-  const g = new Float64Array(n);
   const a = new Float64Array(n);
-  for (let k = 0; k < n; k++) {
-    t[k] = pts[k].timeSec;
-    g[k] = pts[k].gainDb;
-    a[k] = Math.pow(10, g[k] / 20);
-  }
+  for (let k = 0; k < n; k++) a[k] = Math.pow(10, g[k] / 20);
   const keep = new Uint8Array(n);
   keep[0] = 1;
   keep[n - 1] = 1;
@@ -96,26 +89,49 @@ const MAX_PIECE_DB = 2;
 
 /**
  * The curve with a point added wherever a segment crosses `levelDb` and every
- * `MAX_PIECE_DB` along high segments (straight in dB, so exact).
+ * `MAX_PIECE_DB` along high segments (straight in dB, so exact), as arrays.
  */
-function withCrossings(points: readonly GainPoint[], levelDb: number): GainPoint[] {
-  const out: GainPoint[] = [];
+function withCrossings(points: readonly GainPoint[], levelDb: number): { t: Float64Array; g: Float64Array; n: number } {
+  let cap = points.length * 2 + 16;
+  let t = new Float64Array(cap);
+  let g = new Float64Array(cap);
+  let n = 0;
+  const push = (time: number, gain: number) => {
+    if (n === cap) {
+      cap *= 2;
+      const t2 = new Float64Array(cap);
+      const g2 = new Float64Array(cap);
+      t2.set(t);
+      g2.set(g);
+      t = t2;
+      g = g2;
+    }
+    t[n] = time;
+    g[n] = gain;
+    n++;
+  };
   for (let k = 0; k < points.length; k++) {
     const p = points[k];
+    push(p.timeSec, p.gainDb);
     const q = points[k + 1];
-    out.push(p);
     if (!q) break;
     const dG = q.gainDb - p.gainDb;
+    if (dG === 0) continue;
     const span = q.timeSec - p.timeSec;
-    const cuts: number[] = [];
-    if ((p.gainDb - levelDb) * (q.gainDb - levelDb) < 0) cuts.push((levelDb - p.gainDb) / dG);
     const pieces = Math.ceil(Math.abs(dG) / MAX_PIECE_DB);
-    for (let j = 1; j < pieces; j++) cuts.push(j / pieces);
-    if (cuts.length > 1) cuts.sort((a, b) => a - b);
-    for (const u of cuts) {
-      const timeSec = p.timeSec + span * u;
-      if (timeSec > out[out.length - 1].timeSec && timeSec < q.timeSec) out.push({ timeSec, gainDb: p.gainDb + dG * u });
+    const crossing = (p.gainDb - levelDb) * (q.gainDb - levelDb) < 0 ? (levelDb - p.gainDb) / dG : 2;
+    let crossed = crossing > 1;
+    for (let j = 1; j <= pieces; j++) {
+      const u = j / pieces;
+      if (!crossed && crossing <= u) {
+        crossed = true;
+        const time = p.timeSec + span * crossing;
+        if (time > t[n - 1] && time < q.timeSec && crossing < u) push(time, levelDb);
+      }
+      if (j === pieces) break;
+      const time = p.timeSec + span * u;
+      if (time > t[n - 1] && time < q.timeSec) push(time, p.gainDb + dG * u);
     }
   }
-  return out;
+  return { t, g, n };
 }

@@ -62,6 +62,8 @@ export function writeBreakpointCsv(curve: GainCurve, options: CsvExportOptionsIn
   return w.toString();
 }
 
+const POW10 = [1, 10, 100, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9];
+
 /** A growable ASCII byte buffer with integer and fixed-point number writers. */
 class AsciiWriter {
   private buf: Uint8Array;
@@ -92,32 +94,45 @@ class AsciiWriter {
   /** A non-negative integer in decimal. */
   int(v: number) {
     let n = 0;
-    do {
-      this.digits[n++] = 48 + (v % 10);
-      v = Math.floor(v / 10);
-    } while (v > 0);
+    if (v < 0x7fffffff) {
+      let i = v | 0;
+      do {
+        const q = (i / 10) | 0;
+        this.digits[n++] = 48 + i - q * 10;
+        i = q;
+      } while (i > 0);
+    } else {
+      do {
+        this.digits[n++] = 48 + (v % 10);
+        v = Math.floor(v / 10);
+      } while (v > 0);
+    }
     this.room(n);
     while (n > 0) this.buf[this.at++] = this.digits[--n];
   }
-  /** An integer count of 10^−decimals as a fixed-point decimal ("-0.000" never: zero has no sign). */
+  /** An integer count of 10^−decimals (decimals ≤ 9) as a fixed-point decimal; zero has no sign. */
   fixed(scaled: number, decimals: number) {
     if (scaled < 0) {
       this.byte(45);
       scaled = -scaled;
     }
-    const unit = Math.pow(10, decimals);
+    const unit = POW10[decimals];
     const whole = Math.floor(scaled / unit);
-    let frac = scaled - whole * unit;
+    let frac = (scaled - whole * unit) | 0;
     this.int(whole);
     this.room(decimals + 1);
     this.buf[this.at++] = 46;
     for (let i = decimals - 1; i >= 0; i--) {
-      this.buf[this.at + i] = 48 + (frac % 10);
-      frac = Math.floor(frac / 10);
+      const q = (frac / 10) | 0;
+      this.buf[this.at + i] = 48 + frac - q * 10;
+      frac = q;
     }
     this.at += decimals;
   }
   toString(): string {
+    // TextDecoder is a Web-platform global (WHATWG Encoding; browsers and Node alike), not in ES2022's lib.
+    const Decoder = (globalThis as { TextDecoder?: new () => { decode(bytes: Uint8Array): string } }).TextDecoder;
+    if (Decoder) return new Decoder().decode(this.buf.subarray(0, this.at));
     const parts: string[] = [];
     // fromCharCode takes the typed array as its argument list (array-like), 8 KiB at a time.
     for (let i = 0; i < this.at; i += 8192) parts.push(String.fromCharCode.apply(null, this.buf.subarray(i, Math.min(this.at, i + 8192)) as unknown as number[]));

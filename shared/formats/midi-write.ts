@@ -34,11 +34,27 @@ export function cc14ToGainDb(value: number): number {
   return value > 0 ? 40 * Math.log10(value / 16383) : -Infinity;
 }
 
-/** One event of a track at an absolute tick; `rank` orders events within a tick. */
+/**
+ * One event of a track at an absolute tick; `rank` orders events within a
+ * tick. Channel messages keep their up to three bytes in fields (a song has
+ * hundreds of thousands of them), meta events their bytes in `bytes`.
+ */
 interface TrackEvent {
   tick: number;
   rank: number;
-  bytes: number[];
+  n: number;
+  b0: number;
+  b1: number;
+  b2: number;
+  bytes?: number[];
+}
+
+function meta(rank: number, bytes: number[]): TrackEvent {
+  return { tick: 0, rank, n: bytes.length, b0: 0, b1: 0, b2: 0, bytes };
+}
+
+function channelMessage(tick: number, rank: number, b0: number, b1: number, b2: number): TrackEvent {
+  return { tick, rank, n: 3, b0, b1, b2 };
 }
 
 // One small encoder per event kind (Standard MIDI File 1.0, MMA RP-001).
@@ -56,28 +72,28 @@ function utf8(text: string): number[] {
 /** FF 03 len text: sequence/track name. */
 function trackName(name: string): TrackEvent {
   const text = utf8(name);
-  return { tick: 0, rank: 0, bytes: [0xff, 0x03, ...encodeVlq(text.length), ...text] };
+  return meta(0, [0xff, 0x03, ...encodeVlq(text.length), ...text]);
 }
 /** FF 51 03 tttttt: µs per quarter note = round(60 000 000 / bpm) (120 BPM → 500000 = 07 A1 20). */
 function tempo(bpm: number): TrackEvent {
   const us = Math.round(60_000_000 / bpm);
-  return { tick: 0, rank: 1, bytes: [0xff, 0x51, 0x03, (us >> 16) & 0xff, (us >> 8) & 0xff, us & 0xff] };
+  return meta(1, [0xff, 0x51, 0x03, (us >> 16) & 0xff, (us >> 8) & 0xff, us & 0xff]);
 }
 /** FF 58 04 nn dd cc bb: numerator, log2(denominator), 24 MIDI clocks per click, 8 32nds per quarter. */
 function timeSignature(num: number, den: number): TrackEvent {
-  return { tick: 0, rank: 2, bytes: [0xff, 0x58, 0x04, num, Math.round(Math.log2(den)), 24, 8] };
+  return meta(2, [0xff, 0x58, 0x04, num, Math.round(Math.log2(den)), 24, 8]);
 }
 /** Bn cc vv: control change, channel 1–16. */
 function controlChange(tick: number, channel: number, controller: number, value: number, rank = 3): TrackEvent {
-  return { tick, rank, bytes: [0xb0 | (channel - 1), controller, value] };
+  return channelMessage(tick, rank, 0xb0 | (channel - 1), controller, value);
 }
 /** 9n kk vv: note on. */
 function noteOn(tick: number, channel: number, key: number, velocity: number): TrackEvent {
-  return { tick, rank: 4, bytes: [0x90 | (channel - 1), key, velocity] };
+  return channelMessage(tick, 4, 0x90 | (channel - 1), key, velocity);
 }
 /** 8n kk 40: note off (release velocity 64). Ranked before note-ons at the same tick. */
 function noteOff(tick: number, channel: number, key: number): TrackEvent {
-  return { tick, rank: 3, bytes: [0x80 | (channel - 1), key, 0x40] };
+  return channelMessage(tick, 3, 0x80 | (channel - 1), key, 0x40);
 }
 
 /** Sorts by absolute tick (stable, then rank), writes delta ticks (VLQ), ends with FF 2F 00; returns the MTrk chunk. */
@@ -91,13 +107,18 @@ function encodeTrack(events: TrackEvent[]): Uint8Array {
   // Array.prototype.sort is stable (ES2019), so equal ticks and ranks keep their order.
   const order = sorted ? events : [...events].sort((x, y) => x.tick - y.tick || x.rank - y.rank);
   let size = 8 + 4;
-  for (const e of order) size += 4 + e.bytes.length;
+  for (const e of order) size += 4 + e.n;
   const out = new Uint8Array(size);
   let at = 8;
   let now = 0;
   for (const e of order) {
     at = writeVlq(out, at, e.tick - now);
-    for (let k = 0; k < e.bytes.length; k++) out[at++] = e.bytes[k];
+    if (e.bytes) for (let k = 0; k < e.n; k++) out[at++] = e.bytes[k];
+    else {
+      out[at++] = e.b0;
+      out[at++] = e.b1;
+      out[at++] = e.b2;
+    }
     now = e.tick;
   }
   out[at++] = 0x00;
