@@ -47,6 +47,10 @@ const STAMP_USAGE = `Usage: tuckline stamp <kick.wav|kick.mid> --shape <shape.js
   --gate-threshold dBFS Bass below this peak counts as silent (default -50)
   --no-gate             Tuck every hit even where the bass is silent
   --name <text>         Lane (MIDI track) name (default: the bass file's name, or "Bass")
+  --kind audio|midi     Force the kind of kick source (default: sniffed from the file)
+
+Prints a JSON summary: {"format","out","hits","stampedHits","gatedHits","durationSec"}.
+Exit codes: 0 done, 1 a file or value cannot be used, 2 wrong usage.
 `;
 
 type Flags = Record<string, string | true>;
