@@ -85,12 +85,24 @@ export function arAicChangePoint(x: Float32Array, startSample: number, endSample
   const p = order;
   const m = new Float64Array(p * p);
   const r = new Float64Array(p);
-  for (let i = fitStart; i < a; i++) {
-    const xi = x[i]!;
-    for (let j = 0; j < p; j++) {
-      const xj = x[i - 1 - j]!;
-      r[j]! += xi * xj;
-      for (let k = j; k < p; k++) m[j * p + k]! += xj * x[i - 1 - k]!;
+  // Covariance method from lagged sums: L[d] = Σ_{u∈[fitStart, a)} x[u]·x[u−d];
+  // entry (j, k≥j) = Σ_u x[u−1−j]·x[u−1−k] is L[k−j] with the window shifted
+  // by j+1 samples (drop j+1 terms at the end, add j+1 before the start).
+  // O(count·p) instead of O(count·p²).
+  const lag = new Float64Array(p + 1);
+  for (let d = 0; d <= p; d++) {
+    let sum = 0;
+    for (let u = fitStart; u < a; u++) sum += x[u]! * x[u - d]!;
+    lag[d] = sum;
+  }
+  for (let j = 0; j < p; j++) {
+    r[j] = lag[j + 1]!;
+    for (let k = j; k < p; k++) {
+      const d = k - j;
+      let v = lag[d]!;
+      for (let u = a - 1 - j; u < a; u++) v -= x[u]! * x[u - d]!;
+      for (let u = fitStart - 1 - j; u < fitStart; u++) v += x[u]! * x[u - d]!;
+      m[j * p + k] = v;
     }
   }
   let trace = 0;

@@ -67,7 +67,7 @@ describe('WAV reading: every PCM and float variant, plain and extensible', () =>
   for (const v of VARIANTS) {
     it(`${v.name}: header, samples and mono mixdown (known by construction)`, async () => {
       // 1.3 s spans more than one 1 MiB block for the wide formats, so block joins are exercised.
-      const frames = Math.round(1.3 * v.rate);
+      const frames = Math.round(1.3 * v.rate) + 1;
       const channels = signal(v.channels, frames, v.rate);
       const path = write(`${v.name}.wav`, encodeWav(channels, v.rate, v.enc));
       const info = await probeAudioFile(path);
