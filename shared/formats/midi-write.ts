@@ -83,10 +83,6 @@ function tempo(bpm: number): TrackEvent {
 function timeSignature(num: number, den: number): TrackEvent {
   return meta(2, [0xff, 0x58, 0x04, num, Math.round(Math.log2(den)), 24, 8]);
 }
-/** Bn cc vv: control change, channel 1–16. */
-function controlChange(tick: number, channel: number, controller: number, value: number, rank = 3): TrackEvent {
-  return channelMessage(tick, rank, 0xb0 | (channel - 1), controller, value);
-}
 /** 9n kk vv: note on. */
 function noteOn(tick: number, channel: number, key: number, velocity: number): TrackEvent {
   return channelMessage(tick, 4, 0x90 | (channel - 1), key, velocity);
@@ -127,6 +123,55 @@ function encodeTrack(events: TrackEvent[]): Uint8Array {
   out[at++] = 0x00;
   out.set([0x4d, 0x54, 0x72, 0x6b, ...u32(at - 8)], 0);
   return out.subarray(0, at);
+}
+
+/**
+ * A track whose channel messages arrive already in time order (a lane's
+ * controller stream): written straight into bytes, delta ticks as VLQ,
+ * without an event list to sort. Starts with `head` (meta events at tick 0).
+ */
+class OrderedTrackWriter {
+  private buf = new Uint8Array(1 << 16);
+  private at = 8;
+  private now = 0;
+  constructor(head: TrackEvent[]) {
+    for (const e of head) this.event(e);
+  }
+  private room(n: number) {
+    if (this.at + n <= this.buf.length) return;
+    const next = new Uint8Array(Math.max(this.buf.length * 2, this.at + n));
+    next.set(this.buf.subarray(0, this.at));
+    this.buf = next;
+  }
+  event(e: TrackEvent) {
+    if (e.bytes) {
+      this.room(4 + e.n);
+      this.at = writeVlq(this.buf, this.at, e.tick - this.now);
+      this.buf.set(e.bytes, this.at);
+      this.at += e.n;
+      this.now = e.tick;
+    } else this.channel(e.tick, e.b0, e.b1, e.b2);
+  }
+  /** A three-byte channel message, e.g. Bn cc vv (control change, n = channel − 1). */
+  channel(tick: number, b0: number, b1: number, b2: number) {
+    if (tick < this.now) throw new RangeError('OrderedTrackWriter: events out of order');
+    this.room(7);
+    this.at = writeVlq(this.buf, this.at, tick - this.now);
+    this.buf[this.at++] = b0;
+    this.buf[this.at++] = b1;
+    this.buf[this.at++] = b2;
+    this.now = tick;
+  }
+  /** Ends the track with FF 2F 00 and returns the MTrk chunk. */
+  finish(): Uint8Array {
+    this.room(4);
+    this.buf[this.at++] = 0x00;
+    this.buf[this.at++] = 0xff;
+    this.buf[this.at++] = 0x2f;
+    this.buf[this.at++] = 0x00;
+    this.buf.set([0x4d, 0x54, 0x72, 0x6b, ...u32(this.at - 8)], 0);
+    return this.buf.subarray(0, this.at);
+  }
 }
 
 function u32(v: number): number[] {
@@ -224,19 +269,21 @@ export function writeMidiCc(lanes: readonly MidiLane[], options: MidiExportOptio
   const tracks: Uint8Array[] = [];
   tracks.push(encodeTrack([trackName(title), tempo(o.bpm), timeSignature(o.timeSignature[0], o.timeSignature[1])]));
   for (const lane of lanes) {
-    const events: TrackEvent[] = [trackName(lane.name)];
+    // The controller stream comes in tick order: it is written as it comes.
+    const w = new OrderedTrackWriter([trackName(lane.name)]);
+    const status = 0xb0 | (o.channel - 1);
     if (o.fourteenBit) {
       let lastMsb = -1;
       forEachCcChange(lane.curve, o.bpm, o.ppq, 16383, (tick, value) => {
         const msb = value >> 7;
-        if (msb !== lastMsb) events.push(controlChange(tick, o.channel, o.cc, msb, 3));
-        events.push(controlChange(tick, o.channel, o.cc + 32, value & 0x7f, 4));
+        if (msb !== lastMsb) w.channel(tick, status, o.cc, msb);
+        w.channel(tick, status, o.cc + 32, value & 0x7f);
         lastMsb = msb;
       });
     } else {
-      forEachCcChange(lane.curve, o.bpm, o.ppq, 127, (tick, value) => events.push(controlChange(tick, o.channel, o.cc, value)));
+      forEachCcChange(lane.curve, o.bpm, o.ppq, 127, (tick, value) => w.channel(tick, status, o.cc, value));
     }
-    tracks.push(encodeTrack(events));
+    tracks.push(w.finish());
   }
   if (o.markerTrack) {
     const events: TrackEvent[] = [trackName('Kick hits')];
