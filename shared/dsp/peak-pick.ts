@@ -13,17 +13,45 @@
 export function movingMedian(values: Float32Array, radius: number, stride = 50): Float32Array {
   const n = values.length;
   const out = new Float32Array(n);
-  const scratch = new Float32Array(2 * radius + 1);
+  const scratch = new Float64Array(2 * radius + 1);
   for (let centre = 0; centre < n; centre += stride) {
     const lo = Math.max(0, centre - radius);
     const hi = Math.min(n, centre + radius + 1);
-    const window = scratch.subarray(0, hi - lo);
-    window.set(values.subarray(lo, hi));
-    window.sort();
-    const median = window[window.length >> 1]!;
+    const len = hi - lo;
+    for (let i = 0; i < len; i++) scratch[i] = values[lo + i]!;
+    const median = selectKth(scratch, len, len >> 1);
     out.fill(median, centre, Math.min(n, centre + stride));
   }
   return out;
+}
+
+/**
+ * The k-th smallest of a[0..len) (Hoare's quickselect, middle pivot; a is
+ * reordered). The same value a full sort would put at index k, in O(len).
+ */
+function selectKth(a: Float64Array, len: number, k: number): number {
+  let left = 0;
+  let right = len - 1;
+  while (left < right) {
+    const pivot = a[(left + right) >> 1]!;
+    let i = left;
+    let j = right;
+    while (i <= j) {
+      while (a[i]! < pivot) i++;
+      while (a[j]! > pivot) j--;
+      if (i <= j) {
+        const t = a[i]!;
+        a[i] = a[j]!;
+        a[j] = t;
+        i++;
+        j--;
+      }
+    }
+    if (k <= j) right = j;
+    else if (k >= i) left = i;
+    else return a[k]!;
+  }
+  return a[k]!;
 }
 
 /**
