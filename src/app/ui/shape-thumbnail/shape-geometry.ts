@@ -18,6 +18,8 @@ export interface PlotBox {
   height: number;
   /** Inset on every side, in the same units. */
   pad: number;
+  /** A wider inset on the left, for axis labels. */
+  padLeft?: number;
 }
 
 /**
@@ -58,7 +60,8 @@ export function shapeDomain(shapes: readonly DrawnShape[]): ShapeDomain {
 }
 
 export function xOf(tMs: number, d: ShapeDomain, box: PlotBox): number {
-  return box.pad + ((tMs - d.tMinMs) / (d.tMaxMs - d.tMinMs)) * (box.width - 2 * box.pad);
+  const left = box.padLeft ?? box.pad;
+  return left + ((tMs - d.tMinMs) / (d.tMaxMs - d.tMinMs)) * (box.width - left - box.pad);
 }
 
 export function yOf(gainDb: number, d: ShapeDomain, box: PlotBox): number {

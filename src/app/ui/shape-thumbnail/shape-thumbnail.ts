@@ -13,13 +13,14 @@ import { DrawnShape, PlotBox, shapeDomain, shapePaths, xOf, yOf } from './shape-
   template: `
     <svg [attr.viewBox]="'0 0 ' + box().width + ' ' + box().height" role="img" [attr.aria-label]="description()">
       @if (detailed()) {
-        <line class="grid" [attr.x1]="box().pad" [attr.x2]="box().width - box().pad" [attr.y1]="zeroY()" [attr.y2]="zeroY()" />
-        <line class="grid" [attr.x1]="box().pad" [attr.x2]="box().width - box().pad" [attr.y1]="floorY()" [attr.y2]="floorY()" />
+        <line class="grid" [attr.x1]="left()" [attr.x2]="box().width - box().pad" [attr.y1]="zeroY()" [attr.y2]="zeroY()" />
+        <line class="grid" [attr.x1]="left()" [attr.x2]="box().width - box().pad" [attr.y1]="floorY()" [attr.y2]="floorY()" />
         @if (hitX() !== null) { <line class="hit" [attr.x1]="hitX()" [attr.x2]="hitX()" [attr.y1]="box().pad - 4" [attr.y2]="box().height - box().pad + 4" /> }
-        <text class="tick" [attr.x]="box().pad + 2" [attr.y]="zeroY() - 4">0 dB</text>
-        <text class="tick" [attr.x]="box().pad + 2" [attr.y]="floorY() - 4">{{ domain().gainMinDb | number: '1.0-0' }} dB</text>
+        <text class="tick end" [attr.x]="left() - 6" [attr.y]="zeroY() + 4">0 dB</text>
+        <text class="tick end" [attr.x]="left() - 6" [attr.y]="floorY() + 4">{{ domain().gainMinDb | number: '1.0-0' }} dB</text>
+        <text class="tick" [attr.x]="left()" [attr.y]="box().height - 4">{{ domain().tMinMs | number: '1.0-0' }} ms</text>
         <text class="tick end" [attr.x]="box().width - box().pad" [attr.y]="box().height - 4">{{ domain().tMaxMs | number: '1.0-0' }} ms</text>
-        @if (hitX() !== null) { <text class="tick mid" [attr.x]="hitX()" [attr.y]="box().height - 4">hit</text> }
+        @if (hitX() !== null) { <text class="tick mid" [attr.x]="hitX()" [attr.y]="box().pad - 8">hit</text> }
       }
       @if (comparePaths(); as c) {
         <path class="line compare" [attr.d]="c.line" />
@@ -63,7 +64,7 @@ export class ShapeThumbnail {
   readonly label = input('Current');
   readonly compareLabel = input('Other version');
 
-  protected readonly box = computed<PlotBox>(() => (this.detailed() ? { width: 480, height: 200, pad: 20 } : { width: 160, height: 56, pad: 4 }));
+  protected readonly box = computed<PlotBox>(() => (this.detailed() ? { width: 480, height: 210, pad: 24, padLeft: 52 } : { width: 160, height: 56, pad: 4 }));
   protected readonly domain = computed(() => {
     const other = this.compare();
     return shapeDomain(other ? [this.shape(), other] : [this.shape()]);
@@ -73,6 +74,7 @@ export class ShapeThumbnail {
     const other = this.compare();
     return other ? shapePaths(other, this.domain(), this.box()) : null;
   });
+  protected readonly left = computed(() => this.box().padLeft ?? this.box().pad);
   protected readonly zeroY = computed(() => yOf(0, this.domain(), this.box()));
   protected readonly floorY = computed(() => yOf(this.domain().gainMinDb, this.domain(), this.box()));
   protected readonly hitX = computed(() => {

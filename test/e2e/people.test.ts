@@ -1,0 +1,167 @@
+import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { startAppServer, type AppServer } from '../helpers/app-server';
+
+// Issue 5 in a real browser: the demo owner looks after the team library, invites a new
+// assistant by e-mail (caught by the local SMTP fake), and the assistant joins through the
+// e-mailed link and can use, but not change, the team's presets. Needs a prior `ng build`.
+const screenshots = join(import.meta.dirname, '../../docs/screenshots');
+const args = ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'];
+const invitee = 'mara.quay@tuckline.test';
+
+describe('team library and people in Chromium', () => {
+  let server: AppServer;
+  const contexts: BrowserContext[] = [];
+  const profiles: string[] = [];
+  let owner: Page;
+  let inviteLink = '';
+
+  async function freshPage(): Promise<Page> {
+    const profile = mkdtempSync(join(tmpdir(), 'tuckline-e2e-people-'));
+    profiles.push(profile);
+    const context = await chromium.launchPersistentContext(profile, { executablePath: '/usr/bin/chromium', headless: true, viewport: { width: 1360, height: 860 }, args });
+    contexts.push(context);
+    return context.pages()[0] ?? (await context.newPage());
+  }
+  const shot = (page: Page, name: string) => page.screenshot({ path: join(screenshots, `${name}.png`) });
+
+  beforeAll(async () => {
+    server = await startAppServer();
+    mkdirSync(screenshots, { recursive: true });
+    owner = await freshPage();
+  });
+
+  afterAll(async () => {
+    for (const c of contexts) await c.close();
+    await server?.stop();
+    for (const p of profiles) rmSync(p, { recursive: true, force: true });
+  });
+
+  it('shows the owner the library with the starter presets and edit controls', async () => {
+    await owner.goto(`${server.url}/sign-in`);
+    await owner.getByLabel('E-mail').fill('owner@tuckline.test');
+    await owner.getByLabel('Password').fill('tuckline-demo');
+    await owner.getByRole('button', { name: 'Sign in' }).click();
+    await owner.waitForURL(/\/songs$/);
+    await owner.getByRole('link', { name: 'Presets' }).click();
+    await owner.waitForURL(/\/presets$/);
+    await expect.poll(() => owner.locator('tr.preset-row').count()).toBeGreaterThanOrEqual(6);
+    expect(await owner.locator('tr.preset-row .name-link').allTextContents()).toContain('Trap 808 tuck');
+    expect(await owner.getByRole('button', { name: 'New preset' }).count()).toBe(1);
+    expect(await owner.locator('button.preset-actions').count()).toBeGreaterThanOrEqual(6);
+    // The server filters by genre.
+    await owner.getByRole('combobox', { name: 'Genre' }).click();
+    await owner.getByRole('option', { name: 'trap', exact: true }).click();
+    await expect.poll(async () => (await owner.locator('tr.preset-row .name-link').allTextContents()).map((t) => t.trim())).toEqual(['Trap 808 tuck']);
+    await owner.getByRole('combobox', { name: 'Genre' }).click();
+    await owner.getByRole('option', { name: 'All genres' }).click();
+    await expect.poll(() => owner.locator('tr.preset-row').count()).toBeGreaterThanOrEqual(6);
+    await shot(owner, 'presets-library');
+    await owner.getByRole('radio', { name: 'Cards' }).click();
+    await expect.poll(() => owner.locator('.preset-card').count()).toBeGreaterThanOrEqual(6);
+    await shot(owner, 'presets-cards');
+    await owner.getByRole('radio', { name: 'Table' }).click();
+  });
+
+  it('saves a new version through the dialog and compares it with the first', async () => {
+    await owner.locator('tr.preset-row', { hasText: 'Trap 808 tuck' }).getByRole('button', { name: /Actions for/ }).click();
+    await owner.getByRole('menuitem', { name: 'Edit' }).click();
+    const dialog = owner.getByRole('dialog');
+    await dialog.getByLabel('Gain of point 2, dB').fill('-24');
+    await dialog.getByLabel('Gain of point 3, dB').fill('-24');
+    await dialog.getByLabel('Time of point 4, ms').fill('160');
+    await dialog.getByRole('button', { name: 'Save as new version' }).click();
+    await expect.poll(() => dialog.count()).toBe(0);
+    await owner.locator('tr.preset-row .name-link', { hasText: 'Trap 808 tuck' }).click();
+    await owner.waitForURL(/\/presets\/[0-9a-f-]+$/);
+    await expect.poll(() => owner.locator('table[aria-label="Versions of this preset"] tr.mat-mdc-row').count()).toBe(2);
+    await owner.getByRole('button', { name: 'Compare version 1 with the current one' }).click();
+    await expect.poll(() => owner.locator('.drawing path.line.compare').count()).toBe(1);
+    expect(await owner.locator('.drawing .legend').textContent()).toContain('Version 1');
+    await shot(owner, 'preset-compare');
+  });
+
+  it('invites a new assistant from the team page', async () => {
+    await owner.getByRole('link', { name: 'Team' }).click();
+    await owner.waitForURL(/\/team$/);
+    await owner.getByLabel('E-mail').fill(invitee);
+    await owner.getByRole('combobox', { name: 'Role' }).last().click();
+    await owner.getByRole('option', { name: 'assistant' }).click();
+    // The fake hands over the next message to that address, so listen before sending.
+    const delivered = server.ctx.mail.waitFor(invitee);
+    await owner.getByRole('button', { name: 'Send invitation' }).click();
+    await expect.poll(() => owner.locator('table[aria-label="Pending invitations"] tr.invitation-row').allTextContents()).toEqual([expect.stringContaining(invitee)]);
+    const mail = await delivered;
+    const path = /\/invitations\/[A-Za-z0-9_-]+/.exec(mail.text)?.[0];
+    expect(path, mail.text).toBeTruthy();
+    inviteLink = `${server.url}${path}`;
+    await owner.getByLabel('E-mail').click();
+    await owner.locator('body').click({ position: { x: 5, y: 5 } });
+    await shot(owner, 'team-invite');
+  });
+
+  it('shows the owner the invitation in the audit trail, filtered', async () => {
+    await owner.getByRole('link', { name: 'Audit trail' }).click();
+    await owner.waitForURL(/\/audit$/);
+    await expect.poll(() => owner.locator('tr.audit-row').count()).toBeGreaterThan(0);
+    await owner.getByRole('combobox', { name: 'What' }).click();
+    await owner.getByRole('option', { name: 'Invitations' }).click();
+    await expect.poll(async () => (await owner.locator('tr.audit-row').allTextContents()).join('\n')).toContain('sent an invitation');
+    expect((await owner.locator('tr.audit-row').allTextContents()).join('\n')).toContain(invitee);
+    await owner.getByRole('combobox', { name: 'What' }).click();
+    await owner.getByRole('option', { name: 'Everything' }).click();
+    await expect.poll(async () => (await owner.locator('tr.audit-row').allTextContents()).join('\n')).toContain('saved preset');
+    await shot(owner, 'audit');
+  });
+
+  it('lets the invitee create an account through the e-mailed link and land in the team', async () => {
+    const page = await freshPage();
+    await page.goto(inviteLink);
+    await expect.poll(() => page.locator('h1').textContent()).toMatch(/^Join /);
+    expect(await page.locator('.facts').textContent()).toContain(invitee);
+    await page.getByLabel('Your name').fill('Mara Quay');
+    await page.getByLabel('Choose a password').fill('low-end-theory-42');
+    await shot(page, 'invitation-accept');
+    await page.getByRole('button', { name: 'Create account and join' }).click();
+    await page.waitForURL(/\/songs$/);
+    expect((await page.locator('tl-role-chip').first().textContent())?.trim()).toBe('assistant');
+
+    await page.getByRole('link', { name: 'Presets' }).click();
+    await page.waitForURL(/\/presets$/);
+    await expect.poll(() => page.locator('tr.preset-row').count()).toBeGreaterThanOrEqual(6);
+    expect(await page.locator('tr.preset-row .name-link').allTextContents()).toContain('Trap 808 tuck');
+    // No create, import or edit controls for an assistant …
+    expect(await page.getByRole('button', { name: 'New preset' }).count()).toBe(0);
+    expect(await page.getByRole('button', { name: 'Import file' }).count()).toBe(0);
+    expect(await page.locator('button.preset-actions').count()).toBe(0);
+    await page.locator('tr.preset-row .name-link', { hasText: 'Trap 808 tuck' }).click();
+    await page.waitForURL(/\/presets\/[0-9a-f-]+$/);
+    await expect.poll(() => page.locator('table[aria-label="Versions of this preset"] tr.mat-mdc-row').count()).toBe(2);
+    expect(await page.getByRole('button', { name: 'Edit' }).count()).toBe(0);
+    expect(await page.getByRole('button', { name: /^Restore version/ }).count()).toBe(0);
+
+    // … and the API refuses a change made straight from the page.
+    const statuses = await page.evaluate(async () => {
+      const me = await (await fetch('/api/auth/me')).json();
+      const teamId = me.teams[0].id as string;
+      const list = await (await fetch(`/api/teams/${teamId}/presets`)).json();
+      const patch = await fetch(`/api/teams/${teamId}/presets/${list[0].id}`, {
+        method: 'PATCH',
+        headers: { 'content-type': 'application/json' },
+        body: JSON.stringify({ version: list[0].version, name: 'Taken over' }),
+      });
+      return { teams: me.teams.length as number, patch: patch.status, code: (await patch.json()).error?.code as string };
+    });
+    expect(statuses).toEqual({ teams: 1, patch: 403, code: 'auth.forbidden' });
+  });
+
+  it('refuses the same link a second time with a clear message', async () => {
+    const page = await freshPage();
+    await page.goto(inviteLink);
+    await expect.poll(() => page.locator('h1').textContent()).toBe('This invitation cannot be used');
+    expect(await page.getByRole('alert').textContent()).toContain('not valid any more');
+  });
+});
