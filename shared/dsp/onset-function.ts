@@ -73,12 +73,6 @@ export function predictionOnsetFunction(x: Float32Array, hopSamples: number, fit
     sums[19]! += sign * x3 * x4;
     sums[24]! += sign * x4 * x4;
   };
-  // Index into `sums` of entry (j+1, k+1) of the normal matrix, j,k = 0..p−1 (upper triangle).
-  const upper = new Int32Array(p * p);
-  for (let j = 0; j < p; j++) for (let k = 0; k < p; k++) upper[j * p + k] = (Math.min(j, k) + 1) * dim + Math.max(j, k) + 1;
-  const a = new Float64Array(p);
-  const m = new Float64Array(p * p);
-  const rhs = new Float64Array(p);
   let windowEnd = 0; // sums cover i in [windowEnd − fit, windowEnd)
   for (let f = 0; f < frames; f++) {
     const s = f * hopSamples;
@@ -88,30 +82,47 @@ export function predictionOnsetFunction(x: Float32Array, hopSamples: number, fit
       windowEnd++;
     }
     const count = Math.max(0, Math.min(fitSamples, s - p));
-    // Normal equations: Σ x[i−j]x[i−k] a_k = Σ x[i]x[i−j], j,k = 1..p.
-    let trace = 0;
-    for (let j = 0; j < p; j++) {
-      for (let k = 0; k < p; k++) m[j * p + k] = sums[upper[j * p + k]!]!;
-      rhs[j] = sums[j + 1]!;
-      trace += m[j * p + j]!;
+    // Normal equations (C + ridge·I)·a = r with C_jk = Σ x[i−j]x[i−k], r_j = Σ x[i]x[i−j],
+    // j,k = 1..4, solved by an unrolled Cholesky factorisation.
+    const c11 = sums[6]!, c12 = sums[7]!, c13 = sums[8]!, c14 = sums[9]!;
+    const c22 = sums[12]!, c23 = sums[13]!, c24 = sums[14]!;
+    const c33 = sums[18]!, c34 = sums[19]!, c44 = sums[24]!;
+    const r1 = sums[1]!, r2 = sums[2]!, r3 = sums[3]!, r4 = sums[4]!;
+    const ridge = 1e-6 * (c11 + c22 + c33 + c44) + 1e-12;
+    let a1 = 0, a2 = 0, a3 = 0, a4 = 0;
+    const d1 = c11 + ridge;
+    if (d1 > 0) {
+      const l11 = Math.sqrt(d1);
+      const l21 = c12 / l11, l31 = c13 / l11, l41 = c14 / l11;
+      const d2 = c22 + ridge - l21 * l21;
+      if (d2 > 0) {
+        const l22 = Math.sqrt(d2);
+        const l32 = (c23 - l31 * l21) / l22, l42 = (c24 - l41 * l21) / l22;
+        const d3 = c33 + ridge - l31 * l31 - l32 * l32;
+        if (d3 > 0) {
+          const l33 = Math.sqrt(d3);
+          const l43 = (c34 - l41 * l31 - l42 * l32) / l33;
+          const d4 = c44 + ridge - l41 * l41 - l42 * l42 - l43 * l43;
+          if (d4 > 0) {
+            const l44 = Math.sqrt(d4);
+            const y1 = r1 / l11;
+            const y2 = (r2 - l21 * y1) / l22;
+            const y3 = (r3 - l31 * y1 - l32 * y2) / l33;
+            const y4 = (r4 - l41 * y1 - l42 * y2 - l43 * y3) / l44;
+            a4 = y4 / l44;
+            a3 = (y3 - l43 * a4) / l33;
+            a2 = (y2 - l32 * a3 - l42 * a4) / l22;
+            a1 = (y1 - l21 * a2 - l31 * a3 - l41 * a4) / l11;
+          }
+        }
+      }
     }
-    const ridge = 1e-6 * trace + 1e-12;
-    for (let j = 0; j < p; j++) m[j * p + j]! += ridge;
-    solveSymmetric(m, rhs, a, p);
-    // Fit error from the sums: E = c00 − 2·aᵀr + aᵀ·C·a, C the unridged sums.
-    let err = sums[0]!;
-    for (let j = 0; j < p; j++) {
-      err -= 2 * a[j]! * rhs[j]!;
-      for (let k = 0; k < p; k++) err += a[j]! * a[k]! * sums[upper[j * p + k]!]!;
-    }
+    // Fit error E = c00 − 2·aᵀr + aᵀ·C·a; with (C + ridge·I)·a = r this is c00 − aᵀr − ridge·|a|².
+    const err = sums[0]! - (a1 * r1 + a2 * r2 + a3 * r3 + a4 * r4) - ridge * (a1 * a1 + a2 * a2 + a3 * a3 + a4 * a4);
     const before = count > 0 ? Math.max(0, err) / count : 0;
     let after = 0;
     let sig = 0;
     const end = s + windowSamples < n ? s + windowSamples : n;
-    const a1 = a[0]!;
-    const a2 = a[1]!;
-    const a3 = a[2]!;
-    const a4 = a[3]!;
     for (let i = s < p ? p : s; i < end; i++) {
       const xi = x[i]!;
       const e = xi - (a1 * x[i - 1]! + a2 * x[i - 2]! + a3 * x[i - 3]! + a4 * x[i - 4]!);
@@ -126,33 +137,4 @@ export function predictionOnsetFunction(x: Float32Array, hopSamples: number, fit
     riseDb[f] = r > 0 ? r : 0;
   }
   return { hopSamples, riseDb, energy, innovation };
-}
-
-/** Solves M·a = b for a small symmetric positive-definite M (p×p, row-major) by Cholesky; M is overwritten. */
-function solveSymmetric(m: Float64Array, b: Float64Array, out: Float64Array, p: number): void {
-  for (let j = 0; j < p; j++) {
-    let d = m[j * p + j]!;
-    for (let k = 0; k < j; k++) d -= m[j * p + k]! * m[j * p + k]!;
-    if (d <= 0) {
-      out.fill(0);
-      return;
-    }
-    const l = Math.sqrt(d);
-    m[j * p + j] = l;
-    for (let i = j + 1; i < p; i++) {
-      let s = m[i * p + j]!;
-      for (let k = 0; k < j; k++) s -= m[i * p + k]! * m[j * p + k]!;
-      m[i * p + j] = s / l;
-    }
-  }
-  for (let i = 0; i < p; i++) {
-    let s = b[i]!;
-    for (let k = 0; k < i; k++) s -= m[i * p + k]! * out[k]!;
-    out[i] = s / m[i * p + i]!;
-  }
-  for (let i = p - 1; i >= 0; i--) {
-    let s = out[i]!;
-    for (let k = i + 1; k < p; k++) s -= m[k * p + i]! * out[k]!;
-    out[i] = s / m[i * p + i]!;
-  }
 }
