@@ -118,6 +118,18 @@ describe('WAV reading: every PCM and float variant, plain and extensible', () =>
     expect(maxDiff).toBeLessThan(2 ** -22);
   });
 
+  it('readWavMono with lowpassHz keeps a 50 Hz tone and drops a 2 kHz one (4th-order Butterworth at 150 Hz; known by construction)', async () => {
+    const fs = 48000;
+    const low = Float32Array.from({ length: fs }, (_, i) => 0.4 * Math.sin((2 * Math.PI * 50 * i) / fs));
+    const high = Float32Array.from({ length: fs }, (_, i) => 0.4 * Math.sin((2 * Math.PI * 2000 * i) / fs));
+    const rms = (x: Float32Array): number => Math.sqrt(x.subarray(fs / 2).reduce((s, v) => s + v * v, 0) / (fs / 2));
+    const a = await readWavMono(write('lp-50.wav', encodeWav([low], fs, { bits: 32, float: true })), { lowpassHz: 150 });
+    const b = await readWavMono(write('lp-2k.wav', encodeWav([high], fs, { bits: 32, float: true })), { lowpassHz: 150 });
+    expect(20 * Math.log10(rms(a.mono) / rms(low))).toBeGreaterThan(-0.1);
+    // |H| of an analogue 4th-order Butterworth at 2000/150: 10·log10(1 + 13.3^8) ≈ 90 dB; the bilinear digital one is at least that.
+    expect(20 * Math.log10(rms(b.mono) / rms(high))).toBeLessThan(-80);
+  });
+
   it('walks past other chunks, odd-sized ones padded to even length (RIFF 1991)', async () => {
     const channels = signal(2, 4800, 48000);
     const bytes = encodeWav(channels, 48000, { bits: 16, extraChunks: [{ id: 'LIST', body: new Uint8Array(33).fill(65) }, { id: 'bext', body: new Uint8Array(602) }] });
