@@ -9,6 +9,8 @@ import { detectKickFile } from '../audio/kick-detection';
 import { bassActivityFromFile } from '../audio/bass-activity';
 import { probeAudioFile } from '../audio/audio-info';
 import { exportCsv, exportMidi, renderWavFile, RENDER_RAMP_TOLERANCE_DB, stampForLane } from '../engine/engine.service';
+import { readWavFile } from '../audio/wav-file';
+import { computeHeadroomReport } from '../../shared/dsp/headroom-report';
 
 /** Wrong use of the command line: exit code 2. */
 class UsageError extends Error {}
@@ -21,6 +23,8 @@ Commands:
   detect <kick.wav|kick.mid>   Find the kick hits; prints JSON {source, sampleRate, durationSec, hits}
   stamp <kick> --shape <shape.json> --format csv|midi|wav --out <file>
                                Stamp the tuck shape at every hit and export the gain automation
+  report <kick.wav> --bass <bass.wav> --shape <shape.json>
+                               Measure kick plus bass before and after the tucks; prints JSON
 
 Run "tuckline <command> --help" for a command's options.
 `;
@@ -48,8 +52,23 @@ const STAMP_USAGE = `Usage: tuckline stamp <kick.wav|kick.mid> --shape <shape.js
   --no-gate             Tuck every hit even where the bass is silent
   --name <text>         Lane (MIDI track) name (default: the bass file's name, or "Bass")
   --kind audio|midi     Force the kind of kick source (default: sniffed from the file)
+  --low-band Hz         WAV only: tuck just the band below this crossover (Linkwitz-Riley, e.g. 120)
 
 Prints a JSON summary: {"format","out","hits","stampedHits","gatedHits","durationSec"}.
+Exit codes: 0 done, 1 a file or value cannot be used, 2 wrong usage.
+`;
+
+const REPORT_USAGE = `Usage: tuckline report <kick.wav> --bass <bass.wav> --shape <shape.json> [options]
+
+Prints {"hits":N,"before":{"samplePeakDbfs":…,"truePeakDbtp":…,"integratedLufs":…},"after":{…},"headroomGainedDb":…}
+measured on kick plus bass: sample peak (dBFS), true peak (dBTP, ITU-R BS.1770-4 Annex 2), integrated loudness
+(LUFS, BS.1770-4 with gating). headroomGainedDb is the sample-peak reduction of the sum (before − after).
+  --bass <bass.wav>     The bass stem to tuck (required)
+  --shape <file>        Tuck shape JSON (required)
+  --base-gain dB        The lane's gain outside tucks (default 0)
+  --gate-threshold dBFS Bass below this peak counts as silent (default -50)
+  --no-gate             Tuck every hit even where the bass is silent
+  --hits <kick.mid>     Take the hits from a MIDI kick part instead of detecting them in the kick audio
 Exit codes: 0 done, 1 a file or value cannot be used, 2 wrong usage.
 `;
 
@@ -136,7 +155,7 @@ async function readShape(path: string) {
 }
 
 async function stamp(argv: string[], out: (s: string) => void): Promise<void> {
-  const valued = new Set(['shape', 'bass', 'bpm', 'ppq', 'cc', 'channel', 'format', 'out', 'base-gain', 'gate-threshold', 'name', 'kind']);
+  const valued = new Set(['shape', 'bass', 'bpm', 'ppq', 'cc', 'channel', 'format', 'out', 'base-gain', 'gate-threshold', 'name', 'kind', 'low-band']);
   const { positional, flags } = parseArgs(argv, valued, new Set(['fourteen-bit', 'markers', 'no-gate']));
   if (flags.help) return out(STAMP_USAGE);
   if (positional.length !== 1) throw new UsageError('stamp takes one kick file (tuckline stamp --help)');
@@ -153,6 +172,8 @@ async function stamp(argv: string[], out: (s: string) => void): Promise<void> {
   const baseGainDb = numberFlag(flags, 'base-gain', { min: -60, max: 24 }) ?? 0;
   const thresholdDbfs = numberFlag(flags, 'gate-threshold', { min: -120, max: 0 }) ?? -50;
   const fourteenBit = flags['fourteen-bit'] === true;
+  const lowBandHz = numberFlag(flags, 'low-band', { min: 30, max: 500 });
+  if (lowBandHz !== undefined && format !== 'wav') throw new UsageError('--low-band applies to --format wav only');
   if (fourteenBit && cc > 31) throw new UsageError('--fourteen-bit needs --cc 0-31 (the LSB goes on CC n+32)');
   const kind = flags.kind;
   if (kind !== undefined && kind !== 'audio' && kind !== 'midi') throw new UsageError('--kind must be audio or midi');
@@ -174,7 +195,7 @@ async function stamp(argv: string[], out: (s: string) => void): Promise<void> {
   } else if (format === 'midi') {
     await writeFile(outPath, exportMidi([{ name, curve: result.curve }], { bpm, ppq, cc, channel, fourteenBit, markerTrack: flags.markers === true }, hits));
   } else {
-    await renderWavFile(bassPath!, result.curve, outPath);
+    await renderWavFile(bassPath!, result.curve, outPath, { lowBandHz });
   }
   out(
     JSON.stringify({
@@ -186,6 +207,41 @@ async function stamp(argv: string[], out: (s: string) => void): Promise<void> {
       durationSec: round(durationSec, 6),
     }) + '\n',
   );
+}
+
+async function report(argv: string[], out: (s: string) => void): Promise<void> {
+  const { positional, flags } = parseArgs(argv, new Set(['shape', 'bass', 'base-gain', 'gate-threshold', 'hits']), new Set(['no-gate']));
+  if (flags.help) return out(REPORT_USAGE);
+  if (positional.length !== 1) throw new UsageError('report takes one kick file (tuckline report --help)');
+  if (typeof flags.bass !== 'string') throw new UsageError('--bass <bass.wav> is required');
+  if (typeof flags.shape !== 'string') throw new UsageError('--shape <shape.json> is required');
+  const baseGainDb = numberFlag(flags, 'base-gain', { min: -60, max: 24 }) ?? 0;
+  const thresholdDbfs = numberFlag(flags, 'gate-threshold', { min: -120, max: 0 }) ?? -50;
+  const shape = await readShape(userPath(flags.shape));
+  const kickPath = userPath(positional[0]);
+  const bassPath = userPath(flags.bass);
+  const detection = await detectKickFile(typeof flags.hits === 'string' ? userPath(flags.hits) : kickPath, typeof flags.hits === 'string' ? {} : { kind: 'audio' });
+  const [kick, bass] = [await readWavFile(kickPath), await readWavFile(bassPath)];
+  if (kick.info.sampleRate !== bass.info.sampleRate) {
+    throw new InputError(`the kick is at ${kick.info.sampleRate} Hz and the bass at ${bass.info.sampleRate} Hz; export both at one sample rate`);
+  }
+  const bassActivity = flags['no-gate'] !== true ? await bassActivityFromFile(bassPath) : undefined;
+  const durationSec = Math.max(kick.info.durationSec, bass.info.durationSec);
+  const lane = { name: 'Bass', shape, baseGainDb, gate: { enabled: true, thresholdDbfs } };
+  const stamped = stampForLane(detection.hits, lane, { durationSec, bassActivity, rampToleranceDb: RENDER_RAMP_TOLERANCE_DB });
+  const hits = detection.hits.filter((h) => h.enabled).map((h, i) => ({ id: String(i), timeSec: h.timeSec }));
+  const result = computeHeadroomReport({ sampleRateHz: kick.info.sampleRate, kick: kick.channels, lanes: [{ id: 'bass', name: 'Bass', bass: bass.channels, curve: stamped.curve }], hits });
+  const pick = (f: { samplePeakDbfs: number; truePeakDbtp: number; integratedLufs: number }) => ({
+    samplePeakDbfs: finiteOrNull(f.samplePeakDbfs),
+    truePeakDbtp: finiteOrNull(f.truePeakDbtp),
+    integratedLufs: finiteOrNull(f.integratedLufs),
+  });
+  out(JSON.stringify({ hits: detection.hits.length, before: pick(result.sum.before), after: pick(result.sum.after), headroomGainedDb: finiteOrNull(result.headroomGainedDb.samplePeak) }) + '\n');
+}
+
+/** JSON has no −Infinity (silence): such a figure prints as null. Two decimals are well inside every meter's tolerance. */
+function finiteOrNull(v: number): number | null {
+  return Number.isFinite(v) ? round(v, 2) : null;
 }
 
 /** Runs the command line; returns the exit code (0 ok, 1 bad input, 2 bad usage). Never throws. */
@@ -201,6 +257,7 @@ export async function main(argv: string[], io: { out?: (s: string) => void; err?
     }
     if (command === 'detect') await detect(rest, out);
     else if (command === 'stamp') await stamp(rest, out);
+    else if (command === 'report') await report(rest, out);
     else throw new UsageError(`unknown command "${command}" (tuckline --help)`);
     return 0;
   } catch (e) {

@@ -7,6 +7,7 @@ import { stampHits } from '../../shared/dsp/stamp';
 import { thinCurve, type ThinOptions } from '../../shared/dsp/curve-thin';
 import { sampleGainCurve } from '../../shared/dsp/gain';
 import { bassSilenceTest } from '../../shared/dsp/bass-gate';
+import { createBandSplitter } from '../../shared/dsp/crossover';
 import { writeBreakpointCsv } from '../../shared/formats/csv-write';
 import { writeMidiCc, type MidiLane } from '../../shared/formats/midi-write';
 import { encodeWavSamples, wavHeader } from '../../shared/formats/wav-write';
@@ -59,8 +60,15 @@ export function exportMidi(lanes: readonly MidiLane[], opts: MidiExportOptionsIn
  * `RENDER_RAMP_TOLERANCE_DB`, not a thinned one), block by block. The output
  * has the input's sample rate, channels, length, bit depth and int/float
  * coding, written with a plain format tag (1 or 3). Returns the output's info.
+ *
+ * With `lowBandHz` (GLOSSARY "Low-band tuck") only the band below that
+ * crossover follows the curve: each channel is split by a Linkwitz–Riley
+ * 4th-order crossover (shared/dsp/crossover.ts), the low band multiplied by
+ * the gain, the high band left as it is, and the two summed — so the bass's
+ * upper harmonics stay while its sub is tucked. With no tuck the bands sum
+ * flat in magnitude (an all-pass; tested).
  */
-export async function renderWavFile(bassPath: string, curve: GainCurve, outPath: string): Promise<AudioInfo> {
+export async function renderWavFile(bassPath: string, curve: GainCurve, outPath: string, opts: { lowBandHz?: number } = {}): Promise<AudioInfo> {
   const wav = await openWav(bassPath);
   let fd = -1;
   try {
@@ -71,11 +79,25 @@ export async function renderWavFile(bassPath: string, curve: GainCurve, outPath:
     writeSync(fd, header);
     let gains = new Float32Array(0);
     let bytes = new Uint8Array(0);
+    const splitters = opts.lowBandHz ? Array.from({ length: info.channels }, () => createBandSplitter(opts.lowBandHz!, info.sampleRate)) : null;
+    let low = new Float32Array(0);
+    let high = new Float32Array(0);
     await wav.forEachBlock((block, firstFrame) => {
       const frames = block[0]?.length ?? 0;
       if (gains.length < frames) gains = new Float32Array(frames);
       sampleGainCurve(curve, frames, info.sampleRate, gains, firstFrame);
-      for (const ch of block) for (let n = 0; n < frames; n++) ch[n] *= gains[n];
+      if (splitters) {
+        if (low.length < frames) {
+          low = new Float32Array(frames);
+          high = new Float32Array(frames);
+        }
+        block.forEach((ch, c) => {
+          splitters[c].split(ch.subarray(0, frames), low.subarray(0, frames), high.subarray(0, frames));
+          for (let n = 0; n < frames; n++) ch[n] = low[n] * gains[n] + high[n];
+        });
+      } else {
+        for (const ch of block) for (let n = 0; n < frames; n++) ch[n] *= gains[n];
+      }
       const size = frames * info.channels * (info.bitDepth / 8);
       if (bytes.length < size) bytes = new Uint8Array(size);
       encodeWavSamples(block, fmt, frames, bytes.subarray(0, size));
@@ -91,8 +113,8 @@ export async function renderWavFile(bassPath: string, curve: GainCurve, outPath:
 }
 
 /** Convenience for renders: stamps a lane at render precision and writes the ducked stem. */
-export async function renderLaneWavFile(bassPath: string, hits: readonly Hit[], lane: LaneStampInput, opts: Omit<StampForLaneOptions, 'rampToleranceDb'>, outPath: string): Promise<{ info: AudioInfo; stamp: StampResult }> {
+export async function renderLaneWavFile(bassPath: string, hits: readonly Hit[], lane: LaneStampInput, opts: Omit<StampForLaneOptions, 'rampToleranceDb'> & { lowBandHz?: number }, outPath: string): Promise<{ info: AudioInfo; stamp: StampResult }> {
   const stamp = stampForLane(hits, lane, { ...opts, rampToleranceDb: RENDER_RAMP_TOLERANCE_DB });
-  const info = await renderWavFile(bassPath, stamp.curve, outPath);
+  const info = await renderWavFile(bassPath, stamp.curve, outPath, { lowBandHz: opts.lowBandHz });
   return { info, stamp };
 }

@@ -81,14 +81,14 @@ export function createExportsService(deps: { db: Database; store: FileStore; son
           store.pathOf(bass.storageKey),
           map.hits,
           { name: lane.name, shape: lane.shape, baseGainDb: lane.baseGainDb, gate: { enabled: lane.gateEnabled, thresholdDbfs: lane.gateThresholdDbfs } },
-          { durationSec, bassActivity },
+          { durationSec, bassActivity, lowBandHz: request.options.lowBandHz },
           temp,
         );
         await store.adopt(temp, storageKey);
       } finally {
         await store.removeTemp(temp);
       }
-      options = {};
+      options = request.options.lowBandHz ? { lowBandHz: request.options.lowBandHz } : {};
       bytes = await store.size(storageKey);
     }
 

@@ -16,6 +16,8 @@ export const exportRequestSchema = z.object({
       fourteenBit: z.boolean().optional(),
       markerTrack: z.boolean().optional(),
       sampleRate: z.number().int().min(8000).max(384000).optional(),
+      /** WAV only: duck just the band below this crossover, Hz (GLOSSARY "Low-band tuck"; 120 Hz is the usual choice). */
+      lowBandHz: z.number().min(30).max(500).optional(),
     })
     .default({}),
 });
