@@ -98,8 +98,6 @@ describe('team library and people in Chromium', () => {
     const path = /\/invitations\/[A-Za-z0-9_-]+/.exec(mail.text)?.[0];
     expect(path, mail.text).toBeTruthy();
     inviteLink = `${server.url}${path}`;
-    await owner.getByLabel('E-mail').click();
-    await owner.locator('body').click({ position: { x: 5, y: 5 } });
     await shot(owner, 'team-invite');
   });
 

@@ -21,6 +21,7 @@ import { PresetsApi } from '../../core/api/presets-api';
 import { AuthService } from '../../core/auth/auth.service';
 import { toApiFailure } from '../../core/http/api-error';
 import { Icon } from '../../ui/icon/icon';
+import { shapeDomain } from '../../ui/shape-thumbnail/shape-geometry';
 import { ShapeThumbnail } from '../../ui/shape-thumbnail/shape-thumbnail';
 import { PresetActions } from '../preset-actions';
 
@@ -88,6 +89,8 @@ export class PresetsLibrary {
     stream: ({ params }) => this.api.list(params.teamId, params.query),
   });
   protected readonly rows = computed<PresetDto[]>(() => (this.presets.hasValue() ? this.presets.value() : []));
+  /** All thumbnails on one scale, so a deeper or longer tuck looks deeper or longer. */
+  protected readonly scale = computed(() => shapeDomain(this.rows().map((r) => r.shape)));
   private readonly seenGenres = signal<string[]>([]);
   protected readonly genreOptions = computed(() => [...new Set([...suggestedGenres, ...this.seenGenres()])].sort());
   protected readonly errorMessage = computed(() => {

@@ -1,7 +1,7 @@
 import { DecimalPipe } from '@angular/common';
 import { ChangeDetectionStrategy, Component, computed, input } from '@angular/core';
 import { describeShape } from '../../../../shared/schemas/tuck-shape';
-import { DrawnShape, PlotBox, shapeDomain, shapePaths, xOf, yOf } from './shape-geometry';
+import { DrawnShape, PlotBox, ShapeDomain, shapeDomain, shapePaths, xOf, yOf } from './shape-geometry';
 
 /**
  * A small drawing of a tuck shape: time relative to the hit across, gain down
@@ -63,9 +63,13 @@ export class ShapeThumbnail {
   readonly detailed = input(false);
   readonly label = input('Current');
   readonly compareLabel = input('Other version');
+  /** Axes shared with other drawings (a list of thumbnails on one scale); by default fitted to the shape(s). */
+  readonly scale = input<ShapeDomain | null>(null);
 
   protected readonly box = computed<PlotBox>(() => (this.detailed() ? { width: 480, height: 210, pad: 24, padLeft: 52 } : { width: 160, height: 56, pad: 4 }));
   protected readonly domain = computed(() => {
+    const fixed = this.scale();
+    if (fixed) return fixed;
     const other = this.compare();
     return shapeDomain(other ? [this.shape(), other] : [this.shape()]);
   });
