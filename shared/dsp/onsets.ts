@@ -62,6 +62,9 @@ export const DETECTION_TUNING = {
   tailMinSustainDb: -3,
   tailMaxHighDb: 3,
   tailMinInnovationDb: -7,
+  /** …or sustains moderately (≥ 2 dB) with a prediction error within 10 dB. */
+  midMinSustainDb: 2,
+  midMinInnovationDb: -10,
   /** Span after the onset over which a hit's low-band peak (its strength) is measured. */
   strengthSpanSec: 0.04,
   /** Absolute floor: a hit whose low-band peak stays under −45 dBFS is noise, not a kick worth tucking. */
@@ -85,9 +88,10 @@ export type DetectionTuning = typeof DETECTION_TUNING;
  *    against a 4 kHz free-running AR-AIC (shared/dsp/onset-refine.ts).
  * 5. Kick evidence (shared/dsp/hit-evidence.ts): the low band must sustain
  *    (≥ 4 dB more energy 15–55 ms after than in the 10 ms before), or — for
- *    hits on a ringing tail — fall by at most 3 dB, bring little new energy
- *    above the band (< +3 dB over its low-band energy) and have a prediction
- *    error within 7 dB of a typical loud hit's. Snares, claps and hats fail both.
+ *    hits on a ringing tail — bring little new energy above the band (< +3 dB
+ *    over its low-band energy) and either fall by at most 3 dB with a
+ *    prediction error within 7 dB of a typical loud hit's, or sustain ≥ 2 dB
+ *    with one within 10 dB. Snares, claps and hats fail all three.
  * 6. Minimum gap: of two hits closer than `minGapMs` (less 2 ms of jitter)
  *    the one with the larger rise stays.
  *
@@ -174,8 +178,11 @@ export function detectOnsetsWithLowBand(
     if (lowBandPeak(band, sample, t.strengthSpanSec) < 10 ** (t.minLowPeakDbfs / 20)) continue;
     const sustain = sustainDb(band, Math.floor(sample / band.factor));
     const innovationDb = 10 * Math.log10(frameInnovation / reference);
-    const newHigh = sustain >= t.minSustainDb ? NaN : newHighBandDb(mono, band, sample, sampleRateHz);
-    const isKick = sustain >= t.minSustainDb || (sustain >= t.tailMinSustainDb && newHigh < t.tailMaxHighDb && innovationDb >= t.tailMinInnovationDb);
+    const newHigh = sustain >= t.minSustainDb ? -Infinity : newHighBandDb(mono, band, sample, sampleRateHz);
+    const isKick =
+      sustain >= t.minSustainDb ||
+      (newHigh < t.tailMaxHighDb &&
+        ((sustain >= t.tailMinSustainDb && innovationDb >= t.tailMinInnovationDb) || (sustain >= t.midMinSustainDb && innovationDb >= t.midMinInnovationDb)));
     trace?.({ sample, riseDb: odf.riseDb[frame]!, innovationDb, sustainDb: sustain, newHighDb: newHigh, kept: isKick });
     if (!isKick) continue;
     kept.push({ sample, rise: odf.riseDb[frame]! });
