@@ -44,6 +44,8 @@ export class Timeline {
   protected readonly view = signal<TimeView>({ t0: 0, t1: 1 });
   protected readonly range = signal<{ fromSec: number; toSec: number } | null>(null);
   protected readonly height = rows.ruler + rows.kick + rows.gap + rows.bass + rows.gap + rows.overview;
+  /** The gesture in progress; kept on the instance because every redraw re-binds the handlers. */
+  private drag: { startX: number; startView: TimeView; mode: 'pan' | 'range' | 'overview'; moved: boolean } | null = null;
   protected readonly viewLabel = computed(() => {
     const { t0, t1 } = this.view();
     const digits = t1 - t0 < 1 ? 3 : 2;
@@ -263,17 +265,17 @@ export class Timeline {
       }
     });
 
-    let drag: { startX: number; startView: TimeView; mode: 'pan' | 'range' | 'overview'; moved: boolean } | null = null;
     svg.on('pointerdown', (e: PointerEvent) => {
       if ((e.target as Element).closest('g.hit') || e.button !== 0) return;
       const [px, py] = d3.pointer(e);
       const mode = py >= overviewTop ? 'overview' : e.shiftKey ? 'range' : 'pan';
-      drag = { startX: px, startView: this.view(), mode, moved: false };
+      this.drag = { startX: px, startView: this.view(), mode, moved: false };
       (e.currentTarget as Element).setPointerCapture?.(e.pointerId);
       if (mode === 'overview') this.view.set(centreOn(this.view(), ox.invert(px), duration));
       if (mode === 'range') this.range.set({ fromSec: x.invert(px), toSec: x.invert(px) });
     });
     svg.on('pointermove', (e: PointerEvent) => {
+      const drag = this.drag;
       if (!drag) return;
       const [px] = d3.pointer(e);
       if (Math.abs(px - drag.startX) > 2) drag.moved = true;
@@ -290,12 +292,13 @@ export class Timeline {
       }
     });
     svg.on('pointerup pointercancel', () => {
+      const drag = this.drag;
       if (drag?.mode === 'range') {
         const r = this.range();
         if (r && drag.moved && r.toSec > r.fromSec) this.rangeSelect.emit(r);
         else this.range.set(null);
       }
-      drag = null;
+      this.drag = null;
     });
   }
 }

@@ -46,6 +46,8 @@ export class TuckEditor {
   protected readonly selected = signal<number | null>(1);
   private frozenDomain: ReturnType<typeof shapeDomain> | null = null;
   private keyRun = 0;
+  /** Merge key of the drag in progress (one drag = one undo step); on the instance because redraws re-bind handlers. */
+  private dragKey = '';
 
   protected readonly summary = computed<ShapeSummary>(() => describeShape(this.shape()));
   protected readonly drawn = computed(() => drawnOutline(this.shape()));
@@ -246,13 +248,12 @@ export class TuckEditor {
         if (e.key.startsWith('Arrow')) this.sealKeys();
       });
 
-    let dragKey = '';
     points.call(
       d3
         .drag<SVGCircleElement, { p: XY; i: number }>()
         .on('start', (e, d) => {
           this.frozenDomain = domain;
-          dragKey = `drag-${d.i}-${Date.now()}`;
+          this.dragKey = `drag-${d.i}-${Date.now()}`;
           this.selected.set(d.i);
           (e.sourceEvent as Event).preventDefault?.();
         })
@@ -260,7 +261,7 @@ export class TuckEditor {
           const frozen = this.frozenDomain ?? domain;
           const xs = d3.scaleLinear().domain([frozen.t0, frozen.t1]).range([margin.left, this.width() - margin.right]);
           const ys = d3.scaleLinear().domain([frozen.gMin, 0]).range([height - margin.bottom, margin.top]);
-          this.emitIfValid(movePoint(this.shape(), d.i, xs.invert(e.x), ys.invert(e.y)), dragKey);
+          this.emitIfValid(movePoint(this.shape(), d.i, xs.invert(e.x), ys.invert(e.y)), this.dragKey);
         })
         .on('end', () => {
           this.frozenDomain = null;
