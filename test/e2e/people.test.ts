@@ -115,6 +115,20 @@ describe('team library and people in Chromium', () => {
     await shot(owner, 'audit');
   });
 
+  it('lets the owner change the team defaults', async () => {
+    await owner.getByRole('link', { name: 'Settings' }).click();
+    await owner.waitForURL(/\/settings$/);
+    await owner.getByLabel('Resolution').fill('480');
+    await owner.getByRole('combobox', { name: 'trap' }).click();
+    await owner.getByRole('option', { name: 'Trap 808 tuck' }).click();
+    await owner.getByRole('button', { name: 'Save settings' }).click();
+    await expect.poll(() => owner.locator('mat-snack-bar-container').textContent()).toContain('Team settings saved.');
+    await owner.reload();
+    await expect.poll(() => owner.getByLabel('Resolution').inputValue()).toBe('480');
+    expect(await owner.getByRole('combobox', { name: 'trap' }).textContent()).toContain('Trap 808 tuck');
+    await shot(owner, 'team-settings');
+  });
+
   it('lets the invitee create an account through the e-mailed link and land in the team', async () => {
     const page = await freshPage();
     await page.goto(inviteLink);
@@ -161,5 +175,35 @@ describe('team library and people in Chromium', () => {
     await page.goto(inviteLink);
     await expect.poll(() => page.locator('h1').textContent()).toBe('This invitation cannot be used');
     expect(await page.getByRole('alert').textContent()).toContain('not valid any more');
+  });
+
+  it('resets a forgotten password through the e-mailed link, once', async () => {
+    const page = await freshPage();
+    await page.goto(`${server.url}/sign-in`);
+    await page.getByRole('link', { name: 'Forgot password?' }).click();
+    await page.waitForURL(/\/reset-password$/);
+    const delivered = server.ctx.mail.waitFor(invitee);
+    await page.getByLabel('E-mail').fill(invitee);
+    await page.getByRole('button', { name: 'Send reset link' }).click();
+    await expect.poll(() => page.getByRole('status').textContent()).toBe('If that address has an account, a reset link is on its way.');
+    const path = /\/reset-password\/[A-Za-z0-9_-]+/.exec((await delivered).text)?.[0];
+    expect(path).toBeTruthy();
+    await page.goto(`${server.url}${path}`);
+    await page.getByLabel('New password', { exact: true }).fill('second-pressing-77');
+    await page.getByLabel('Repeat the new password').fill('second-pressing-77');
+    await page.getByRole('button', { name: 'Save new password' }).click();
+    await page.waitForURL(/\/sign-in\?notice=password-reset$/);
+    expect(await page.getByRole('status').textContent()).toContain('Your password is changed.');
+    await page.getByLabel('E-mail').fill(invitee);
+    await page.getByLabel('Password').fill('second-pressing-77');
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.waitForURL(/\/songs$/);
+    // The link works once.
+    await page.goto(`${server.url}${path}`);
+    await page.getByLabel('New password', { exact: true }).fill('third-pressing-99');
+    await page.getByLabel('Repeat the new password').fill('third-pressing-99');
+    await page.getByRole('button', { name: 'Save new password' }).click();
+    await expect.poll(() => page.getByRole('alert').textContent()).toContain('not valid');
+    expect(await page.getByRole('link', { name: 'Ask for a new link' }).count()).toBe(1);
   });
 });

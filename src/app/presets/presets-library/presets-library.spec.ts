@@ -80,4 +80,31 @@ describe('PresetsLibrary', () => {
     expect(cards.length).toBe(2);
     expect(cards[0].querySelector('tl-shape-thumbnail path.line')?.getAttribute('d')).toMatch(/^M[\d.]+,[\d.]+L/);
   });
+
+  describe('import', () => {
+    const pick = (name: string, text: string) =>
+      (fixture.componentInstance as unknown as { importFile(e: Event): Promise<void> }).importFile({
+        target: { files: [new File([text], name, { type: 'application/json' })], value: name },
+      } as unknown as Event);
+
+    it('shows the server’s reason beside the button when the file is refused', async () => {
+      await renderAs('engineer');
+      await pick('old.tuckline-presets.json', JSON.stringify({ format: 'tuckline.presets', formatVersion: 9, presets: [] }));
+      const req = http.expectOne({ method: 'POST', url: '/api/teams/t-salt/presets/import' });
+      expect(req.request.body).toEqual({ format: 'tuckline.presets', formatVersion: 9, presets: [] });
+      req.flush(
+        { error: { code: 'request.invalid', message: 'formatVersion: Unsupported preset file version (this Tuckline reads version 1).', details: [] } },
+        { status: 400, statusText: 'Bad Request' },
+      );
+      await fixture.whenStable();
+      expect(el().querySelector('.import [role="alert"]')?.textContent).toBe('Not imported: formatVersion: Unsupported preset file version (this Tuckline reads version 1).');
+    });
+
+    it('refuses a file that is not JSON without asking the server', async () => {
+      await renderAs('engineer');
+      await pick('notes.json', 'kick on 1 and 3');
+      await fixture.whenStable();
+      expect(el().querySelector('.import [role="alert"]')?.textContent).toContain('“notes.json” is not a JSON file');
+    });
+  });
 });
