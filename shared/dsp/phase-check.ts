@@ -77,24 +77,40 @@ export function phaseCheck(kickMono: Float32Array, bassMono: Float32Array, sampl
     return { timeSec: hitTimesSec[i], correlation: r, sumVsLouderDb, flag };
   });
 
-  const meanR = (shift: number, sign: number) => {
+  // Mean correlation with the bass moved by `shift` samples. Only the cross term and the
+  // bass energy change with the shift; flipping the polarity just negates r, so one pass serves both signs.
+  const kickEnergy = starts.map((s) => {
+    let kk = 0;
+    for (let i = Math.max(0, s - before); i < Math.min(n, s + after); i++) kk += k[i] * k[i];
+    return kk;
+  });
+  const meanR = (shift: number) => {
     let sum = 0;
     let count = 0;
-    for (const s of starts) {
-      const { r } = stats(s, shift, sign);
+    starts.forEach((s, h) => {
+      let bb = 0;
+      let kb = 0;
+      const lo = Math.max(0, s - before, shift);
+      const hi = Math.min(n, s + after, n + shift);
+      for (let i = lo; i < hi; i++) {
+        const bv = b[i - shift];
+        bb += bv * bv;
+        kb += k[i] * bv;
+      }
+      const r = kb / Math.sqrt(kickEnergy[h] * bb);
       if (Number.isFinite(r)) {
         sum += r;
         count++;
       }
-    }
+    });
     return count ? sum / count : NaN;
   };
-  const now = meanR(0, 1);
+  const now = meanR(0);
   let best = { invertBass: false, offsetMs: 0, r: now };
-  for (const sign of [1, -1]) {
-    for (let ms = -o.maxOffsetMs; ms <= o.maxOffsetMs + 1e-9; ms += o.offsetStepMs) {
-      const r = meanR(Math.round((ms / 1000) * sampleRateHz), sign);
-      if (r > best.r + 1e-6) best = { invertBass: sign < 0, offsetMs: Math.round(ms * 10) / 10, r };
+  for (let ms = -o.maxOffsetMs; ms <= o.maxOffsetMs + 1e-9; ms += o.offsetStepMs) {
+    const r = meanR(Math.round((ms / 1000) * sampleRateHz));
+    for (const [invertBass, value] of [[false, r], [true, -r]] as const) {
+      if (value > best.r + 1e-6) best = { invertBass, offsetMs: Math.round(ms * 10) / 10, r: value };
     }
   }
   return { hits, suggestion: { invertBass: best.invertBass, offsetMs: best.offsetMs, meanCorrelationNow: now, meanCorrelationSuggested: best.r } };
