@@ -27,6 +27,12 @@ describe('team library and people in Chromium', () => {
     return context.pages()[0] ?? (await context.newPage());
   }
   const shot = (page: Page, name: string) => page.screenshot({ path: join(screenshots, `${name}.png`) });
+  /** Picks an option of a mat-select, once any previous panel has finished closing. */
+  async function choose(page: Page, select: string, option: string) {
+    await expect.poll(() => page.locator('div.mat-mdc-select-panel').count()).toBe(0);
+    await page.getByRole('combobox', { name: select, exact: true }).click();
+    await page.getByRole('option', { name: option, exact: true }).click();
+  }
 
   beforeAll(async () => {
     server = await startAppServer();
@@ -53,11 +59,9 @@ describe('team library and people in Chromium', () => {
     expect(await owner.getByRole('button', { name: 'New preset' }).count()).toBe(1);
     expect(await owner.locator('button.preset-actions').count()).toBeGreaterThanOrEqual(6);
     // The server filters by genre.
-    await owner.getByRole('combobox', { name: 'Genre' }).click();
-    await owner.getByRole('option', { name: 'trap', exact: true }).click();
+    await choose(owner, 'Genre', 'trap');
     await expect.poll(async () => (await owner.locator('tr.preset-row .name-link').allTextContents()).map((t) => t.trim())).toEqual(['Trap 808 tuck']);
-    await owner.getByRole('combobox', { name: 'Genre' }).click();
-    await owner.getByRole('option', { name: 'All genres' }).click();
+    await choose(owner, 'Genre', 'All genres');
     await expect.poll(() => owner.locator('tr.preset-row').count()).toBeGreaterThanOrEqual(6);
     await shot(owner, 'presets-library');
     await owner.getByRole('radio', { name: 'Cards' }).click();
@@ -73,6 +77,8 @@ describe('team library and people in Chromium', () => {
     await dialog.getByLabel('Gain of point 2, dB').fill('-24');
     await dialog.getByLabel('Gain of point 3, dB').fill('-24');
     await dialog.getByLabel('Time of point 4, ms').fill('160');
+    await dialog.getByLabel('Name').click();
+    await shot(owner, 'preset-dialog');
     await dialog.getByRole('button', { name: 'Save as new version' }).click();
     await expect.poll(() => dialog.count()).toBe(0);
     await owner.locator('tr.preset-row .name-link', { hasText: 'Trap 808 tuck' }).click();
@@ -88,8 +94,7 @@ describe('team library and people in Chromium', () => {
     await owner.getByRole('link', { name: 'Team' }).click();
     await owner.waitForURL(/\/team$/);
     await owner.getByLabel('E-mail').fill(invitee);
-    await owner.getByRole('combobox', { name: 'Role' }).last().click();
-    await owner.getByRole('option', { name: 'assistant' }).click();
+    await choose(owner, 'Role', 'assistant');
     // The fake hands over the next message to that address, so listen before sending.
     const delivered = server.ctx.mail.waitFor(invitee);
     await owner.getByRole('button', { name: 'Send invitation' }).click();
@@ -105,12 +110,10 @@ describe('team library and people in Chromium', () => {
     await owner.getByRole('link', { name: 'Audit trail' }).click();
     await owner.waitForURL(/\/audit$/);
     await expect.poll(() => owner.locator('tr.audit-row').count()).toBeGreaterThan(0);
-    await owner.getByRole('combobox', { name: 'What' }).click();
-    await owner.getByRole('option', { name: 'Invitations' }).click();
+    await choose(owner, 'What', 'Invitations');
     await expect.poll(async () => (await owner.locator('tr.audit-row').allTextContents()).join('\n')).toContain('sent an invitation');
     expect((await owner.locator('tr.audit-row').allTextContents()).join('\n')).toContain(invitee);
-    await owner.getByRole('combobox', { name: 'What' }).click();
-    await owner.getByRole('option', { name: 'Everything' }).click();
+    await owner.getByRole('button', { name: 'Clear filters' }).click();
     await expect.poll(async () => (await owner.locator('tr.audit-row').allTextContents()).join('\n')).toContain('saved preset');
     await shot(owner, 'audit');
   });
@@ -119,8 +122,7 @@ describe('team library and people in Chromium', () => {
     await owner.getByRole('link', { name: 'Settings' }).click();
     await owner.waitForURL(/\/settings$/);
     await owner.getByLabel('Resolution').fill('480');
-    await owner.getByRole('combobox', { name: 'trap' }).click();
-    await owner.getByRole('option', { name: 'Trap 808 tuck' }).click();
+    await choose(owner, 'trap', 'Trap 808 tuck');
     await owner.getByRole('button', { name: 'Save settings' }).click();
     await expect.poll(() => owner.locator('mat-snack-bar-container').textContent()).toContain('Team settings saved.');
     await owner.reload();
@@ -168,6 +170,13 @@ describe('team library and people in Chromium', () => {
       return { teams: me.teams.length as number, patch: patch.status, code: (await patch.json()).error?.code as string };
     });
     expect(statuses).toEqual({ teams: 1, patch: 403, code: 'auth.forbidden' });
+
+    // The team's settings are there to read, not to change.
+    await page.getByRole('link', { name: 'Settings' }).click();
+    await page.waitForURL(/\/settings$/);
+    await expect.poll(() => page.getByLabel('Resolution').inputValue()).toBe('480');
+    expect(await page.getByLabel('Resolution').isDisabled()).toBe(true);
+    expect(await page.getByRole('button', { name: 'Save settings' }).count()).toBe(0);
   });
 
   it('refuses the same link a second time with a clear message', async () => {

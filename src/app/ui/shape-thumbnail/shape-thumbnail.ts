@@ -44,7 +44,7 @@ import { DrawnShape, PlotBox, ShapeDomain, shapeDomain, shapePaths, xOf, yOf } f
     .area { fill: var(--tl-fill-curve); stroke: none; }
     .grid { stroke: var(--tl-line-grid); stroke-width: 1; stroke-dasharray: 2 3; vector-effect: non-scaling-stroke; }
     .hit { stroke: var(--tl-line-hit); stroke-width: 1; vector-effect: non-scaling-stroke; }
-    .tick { fill: var(--tl-text-muted); font-size: 11px; font-variant-numeric: tabular-nums; }
+    .tick { fill: var(--tl-text-muted); font-size: 12px; font-variant-numeric: tabular-nums; }
     .tick.end { text-anchor: end; }
     .tick.mid { text-anchor: middle; }
     .legend { display: flex; gap: var(--tl-space-4); margin-top: var(--tl-space-2); font-size: 14px; }
