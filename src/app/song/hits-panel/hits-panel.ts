@@ -60,6 +60,14 @@ export class HitsPanel {
     this.store.editHits({ add: [{ timeSec: t, strength: 1 }] }).subscribe(() => this.addAtSec.set(null));
   }
 
+  protected undoHits(): void {
+    this.store.undoHits()?.subscribe();
+  }
+
+  protected redoHits(): void {
+    this.store.redoHits()?.subscribe();
+  }
+
   protected acknowledge(): void {
     this.store.acknowledgeRevision().subscribe();
   }

@@ -141,11 +141,18 @@ export class SongPage {
   protected onKey(e: KeyboardEvent): void {
     const target = e.target as HTMLElement | null;
     if (target && (target.tagName === 'INPUT' || target.tagName === 'TEXTAREA' || target.isContentEditable)) return;
-    if (!(e.ctrlKey || e.metaKey) || this.activeStep() !== 'tuck') return;
+    const step = this.activeStep();
+    if (!(e.ctrlKey || e.metaKey) || (step !== 'tuck' && step !== 'hits')) return;
     const key = e.key.toLowerCase();
-    if (key === 'z' && !e.shiftKey) this.store.undo();
-    else if ((key === 'z' && e.shiftKey) || key === 'y') this.store.redo();
-    else return;
+    const undo = key === 'z' && !e.shiftKey;
+    const redo = (key === 'z' && e.shiftKey) || key === 'y';
+    if (!undo && !redo) return;
     e.preventDefault();
+    if (step === 'tuck') {
+      if (undo) this.store.undo();
+      else this.store.redo();
+    } else if (this.canPrepare()) {
+      (undo ? this.store.undoHits() : this.store.redoHits())?.subscribe();
+    }
   }
 }

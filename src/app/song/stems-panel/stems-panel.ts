@@ -80,7 +80,7 @@ export class StemsPanel {
     const items = Array.from(files).map((f) => {
       const item = queueItem(f);
       const problem = precheck(f);
-      return problem ? { ...item, state: 'failed' as const, error: problem } : item;
+      return problem ? { ...item, state: 'failed' as const, error: problem, refused: true } : item;
     });
     this.queue.update((q) => [...q, ...items]);
     void this.announcer.announce(`${items.length} ${items.length === 1 ? 'file' : 'files'} ready to upload.`);

@@ -11,6 +11,8 @@ export interface UploadItem {
   /** 0…1 */
   progress: number;
   error: string | null;
+  /** Refused in the browser (not WAV or MIDI): trying again cannot help. */
+  refused?: boolean;
 }
 
 let nextKey = 1;

@@ -36,15 +36,18 @@ describe('TuckEditor', () => {
     expect(field('Recovery').value).toBe('100');
   });
 
-  it('moves the selected point with the arrow keys, Shift for the fine step, and merges one run into one edit key', async () => {
+  it('moves the selected point with the arrow keys, Shift for the fine step; a held key is one undo step', async () => {
     const point = el().querySelectorAll<SVGCircleElement>('circle.point')[1];
     point.dispatchEvent(new FocusEvent('focus'));
     point.dispatchEvent(new KeyboardEvent('keydown', { key: 'ArrowDown', bubbles: true }));
-    point.dispatchEvent(new KeyboardEvent('keydown', { key: 'ArrowDown', shiftKey: true, bubbles: true }));
+    point.dispatchEvent(new KeyboardEvent('keydown', { key: 'ArrowDown', shiftKey: true, repeat: true, bubbles: true }));
+    point.dispatchEvent(new KeyboardEvent('keydown', { key: 'ArrowRight', bubbles: true }));
     await fixture.whenStable();
-    expect(edits.map((e) => e.shape.points[1].gainDb)).toEqual([-19, -19.1]);
+    expect(edits.map((e) => e.shape.points[1].gainDb)).toEqual([-19, -19.1, -19.1]);
+    expect(edits[2].shape.points[1].tMs).toBe(1);
     expect(edits[0].mergeKey).not.toBeNull();
     expect(edits[1].mergeKey).toBe(edits[0].mergeKey);
+    expect(edits[2].mergeKey).not.toBe(edits[1].mergeKey);
     expect(field('Depth').value).toBe('-19.1');
   });
 

@@ -135,6 +135,8 @@ export class TuckEditor {
     const step = keyStep(event.key, event.shiftKey);
     if (!step) return;
     event.preventDefault();
+    // A held key (auto-repeat) is one undo step; each new press starts another.
+    if (!event.repeat) this.keyRun++;
     const p = this.shape().points[i];
     this.emitIfValid(movePoint(this.shape(), i, p.tMs + step.dtMs, p.gainDb + step.dDb), `key-${i}-${this.keyRun}`);
   }

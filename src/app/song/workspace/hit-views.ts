@@ -1,5 +1,5 @@
 import { Hit } from '../../../../shared/schemas/hit';
-import { StoredHitDto } from '../../../../shared/schemas/hit-map';
+import { HitEdit, StoredHitDto } from '../../../../shared/schemas/hit-map';
 
 export type HitStatus = 'tucked' | 'off' | 'gated';
 
@@ -47,4 +47,32 @@ export function matchesFilter(hit: HitView, f: HitFilter): boolean {
     case 'gated': return hit.status === 'gated';
     case 'weaker': return hit.strength < f.below;
   }
+}
+
+/**
+ * The edit that turns hit map `from` into `to` (for undo and redo of hit edits).
+ * Hits are matched by time (to the microsecond), not id: the server stores a
+ * fresh set of hit rows on every save. Changed on/off and depths become updates
+ * of `from`'s ids, hits only in `from` are removed, hits only in `to` added.
+ */
+export function diffHitMaps(from: readonly StoredHitDto[], to: readonly StoredHitDto[]): HitEdit | null {
+  const key = (h: StoredHitDto) => Math.round(h.timeSec * 1e6);
+  const target = new Map(to.map((h) => [key(h), h]));
+  const update: NonNullable<HitEdit['update']> = [];
+  const remove: string[] = [];
+  for (const h of from) {
+    const t = target.get(key(h));
+    if (!t) {
+      remove.push(h.id);
+      continue;
+    }
+    const change: NonNullable<HitEdit['update']>[number] = { id: h.id };
+    if (t.enabled !== h.enabled) change.enabled = t.enabled;
+    if ((t.depthDb ?? null) !== (h.depthDb ?? null)) change.depthDb = t.depthDb ?? null;
+    if (change.enabled !== undefined || change.depthDb !== undefined) update.push(change);
+  }
+  const known = new Set(from.map(key));
+  const add = to.filter((h) => !known.has(key(h))).map((h) => ({ timeSec: h.timeSec, strength: h.strength }));
+  if (!update.length && !remove.length && !add.length) return null;
+  return { ...(update.length ? { update } : {}), ...(remove.length ? { remove } : {}), ...(add.length ? { add } : {}) };
 }

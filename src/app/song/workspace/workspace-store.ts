@@ -11,7 +11,7 @@ import { TuckShape } from '../../../../shared/schemas/tuck-shape';
 import { WorkspaceApi } from '../../core/api/workspace-api';
 import { EditHistory } from '../tuck-editor/edit-history';
 import { ShapeEdit } from '../tuck-editor/tuck-editor';
-import { HitView, hitViews, toEngineHits } from './hit-views';
+import { HitView, diffHitMaps, hitViews, toEngineHits } from './hit-views';
 
 export interface LaneCurveView {
   laneId: string;
@@ -47,6 +47,12 @@ export class WorkspaceStore {
   private readonly drafts = signal<Record<string, TuckShape>>({});
   private readonly histories = new Map<string, EditHistory<TuckShape>>();
   private readonly historyTick = signal(0);
+
+  /** Hit maps before each hit edit (undo) and after each undone one (redo). */
+  private readonly hitUndo = signal<HitMapDto[]>([]);
+  private readonly hitRedo = signal<HitMapDto[]>([]);
+  readonly canUndoHits = computed(() => this.hitUndo().length > 0);
+  readonly canRedoHits = computed(() => this.hitRedo().length > 0);
 
   readonly selectedLaneId = signal<string | null>(null);
   readonly selectedHit = signal<number | null>(null);
@@ -194,6 +200,8 @@ export class WorkspaceStore {
       tap({
         next: (map) => {
           this.hitMap.set(map);
+          this.hitUndo.set([]);
+          this.hitRedo.set([]);
           this.song.update((s) => (s ? { ...s, hitCount: map.hits.length } : s));
           this.detecting.set(false);
         },
@@ -204,7 +212,39 @@ export class WorkspaceStore {
 
   editHits(edit: HitEdit): Observable<HitMapDto> {
     const ids = this.requireIds();
-    return this.api.editHits(ids.teamId, ids.songId, edit).pipe(tap((map) => this.hitMap.set(map)));
+    const before = this.hitMap();
+    return this.api.editHits(ids.teamId, ids.songId, edit).pipe(
+      tap((map) => {
+        if (before) this.hitUndo.update((s) => [...s.slice(-99), before]);
+        this.hitRedo.set([]);
+        this.hitMap.set(map);
+      }),
+    );
+  }
+
+  /** Undoes the last hit edit by sending the edit that restores the map before it. */
+  undoHits(): Observable<HitMapDto> | null {
+    return this.stepHits(this.hitUndo, this.hitRedo);
+  }
+
+  redoHits(): Observable<HitMapDto> | null {
+    return this.stepHits(this.hitRedo, this.hitUndo);
+  }
+
+  private stepHits(from: ReturnType<typeof signal<HitMapDto[]>>, to: ReturnType<typeof signal<HitMapDto[]>>): Observable<HitMapDto> | null {
+    const current = this.hitMap();
+    const target = from().at(-1);
+    if (!current || !target) return null;
+    from.update((s) => s.slice(0, -1));
+    const edit = diffHitMaps(current.hits, target.hits);
+    if (!edit) return null;
+    const ids = this.requireIds();
+    return this.api.editHits(ids.teamId, ids.songId, edit).pipe(
+      tap((map) => {
+        to.update((s) => [...s, current]);
+        this.hitMap.set(map);
+      }),
+    );
   }
 
   toggleHit(index: number): Observable<HitMapDto> | null {
