@@ -1,0 +1,77 @@
+import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { startAppServer, type AppServer } from '../helpers/app-server';
+
+// The Check step in Chromium against the real server: the demo song "Night Ferry" is seeded with
+// generated kick and 808 stems and one lane (server/seed/seed-demo.ts). Needs a prior `ng build`.
+const screenshots = join(import.meta.dirname, '../../docs/screenshots');
+
+describe('Check step in Chromium', () => {
+  let server: AppServer;
+  let context: BrowserContext;
+  let page: Page;
+  let profile: string;
+
+  beforeAll(async () => {
+    server = await startAppServer();
+    profile = mkdtempSync(join(tmpdir(), 'tuckline-e2e-check-'));
+    mkdirSync(screenshots, { recursive: true });
+    context = await chromium.launchPersistentContext(profile, {
+      executablePath: '/usr/bin/chromium',
+      headless: true,
+      viewport: { width: 1360, height: 1000 },
+      args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--autoplay-policy=no-user-gesture-required'],
+    });
+    page = context.pages()[0] ?? (await context.newPage());
+  });
+
+  afterAll(async () => {
+    await context?.close();
+    await server?.stop();
+    if (profile) rmSync(profile, { recursive: true, force: true });
+  });
+
+  it('shows the headroom gained on the demo song, as the API measures it', async () => {
+    await page.goto(`${server.url}/sign-in`);
+    await page.getByLabel('E-mail').fill('engineer@tuckline.test');
+    await page.getByLabel('Password').fill('tuckline-demo');
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await page.waitForURL(/\/songs$/);
+    await page.getByText('Night Ferry').first().click();
+    await page.locator('tl-step-bar').getByText('Check', { exact: true }).first().click();
+    const gained = page.locator('.gained .big').first();
+    await gained.waitFor({ timeout: 60_000 });
+    // The same figure straight from the API, through the page's own session cookie.
+    const report = await page.evaluate(async () => {
+      const teams = await (await fetch('/api/teams')).json();
+      const songs = await (await fetch(`/api/teams/${teams[0].id}/songs?q=Night%20Ferry`)).json();
+      return (await fetch(`/api/teams/${teams[0].id}/songs/${songs.items[0].id}/report`)).json();
+    });
+    expect(report.headroomGainedDb.samplePeak).toBeGreaterThan(1);
+    expect(await gained.textContent()).toBe(`${report.headroomGainedDb.samplePeak.toFixed(1)} dB`);
+    await expect.poll(() => page.locator('tl-hit-peaks-chart circle').count()).toBe(2 * report.perHit.length);
+    await page.screenshot({ path: join(screenshots, 'check-report.png') });
+  });
+
+  it('previews quietly, behind a visible hearing caution, and switches A/B without losing its place', async () => {
+    const caution = page.getByRole('note');
+    expect(await caution.textContent()).toMatch(/starts at -20 dB.*damages hearing and\s+loudspeakers/s);
+    await page.getByRole('button', { name: 'Load the preview' }).click();
+    await page.getByRole('button', { name: 'Play' }).waitFor({ timeout: 60_000 });
+    expect(await page.getByText('Level -20 dB').count()).toBe(1);
+    await page.getByRole('button', { name: 'Play' }).click();
+    await page.waitForTimeout(1200);
+    const before = await page.locator('.position').textContent();
+    await page.getByText('A · tucks off').click();
+    await page.waitForTimeout(600);
+    const after = await page.locator('.position').textContent();
+    const sec = (t: string | null) => Number(t!.split(':')[1]);
+    expect(sec(after)).toBeGreaterThan(sec(before));
+    await page.locator('tl-preview-player').scrollIntoViewIfNeeded();
+    await page.screenshot({ path: join(screenshots, 'check-preview.png') });
+    await page.getByRole('button', { name: 'Pause' }).click();
+  });
+});
