@@ -215,7 +215,7 @@ export class TuckEditor {
       .data(env ? [env] : [])
       .join('path')
       .attr('class', 'kick')
-      .attr('d', (d) => d3.area<XY>().x((p) => x(p.tMs)).y0(height - margin.bottom).y1((p) => envY(p.gainDb))(d));
+      .attr('d', (d) => d3.area<XY>().x((p) => x(p.tMs)).y0(height - margin.bottom).y1((p) => envY(p.gainDb))(d.filter((p) => p.tMs >= domain.t0 && p.tMs <= domain.t1)));
 
     const line = d3.line<XY>().x((p) => x(p.tMs)).y((p) => y(p.gainDb));
     const area = d3.area<XY>().x((p) => x(p.tMs)).y0(y(0)).y1((p) => y(p.gainDb));

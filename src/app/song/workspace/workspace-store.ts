@@ -12,6 +12,7 @@ import { WorkspaceApi } from '../../core/api/workspace-api';
 import { EditHistory } from '../tuck-editor/edit-history';
 import { ShapeEdit } from '../tuck-editor/tuck-editor';
 import { HitView, diffHitMaps, hitViews, toEngineHits } from './hit-views';
+import { averagedKickEnvelope } from './kick-envelope';
 
 export interface LaneCurveView {
   laneId: string;
@@ -81,6 +82,13 @@ export class WorkspaceStore {
   readonly bassOverview = computed(() => {
     const s = this.bassStemFor(this.selectedLane());
     return s ? this.overviews()[s.id] ?? null : null;
+  });
+
+  /** The kick averaged over its enabled hits, drawn behind the tuck shape. */
+  readonly kickEnvelope = computed(() => {
+    const ov = this.kickOverview();
+    const times = (this.hitMap()?.hits ?? []).filter((h) => h.enabled).map((h) => h.timeSec);
+    return ov ? averagedKickEnvelope(ov, times) : null;
   });
 
   private readonly engineHits = computed(() => toEngineHits(this.hitMap()?.hits ?? []));
