@@ -177,6 +177,28 @@ describe('team library and people in Chromium', () => {
     await expect.poll(() => page.getByLabel('Resolution').inputValue()).toBe('480');
     expect(await page.getByLabel('Resolution').isDisabled()).toBe(true);
     expect(await page.getByRole('button', { name: 'Save settings' }).count()).toBe(0);
+
+    // An assistant applies a published preset to a lane of the demo song.
+    await page.getByRole('link', { name: 'Songs' }).first().click();
+    await page.waitForURL(/\/songs$/);
+    await page.getByText('Night Ferry').first().click();
+    await page.locator('tl-step-bar').getByText('Tuck', { exact: true }).first().click();
+    await page.getByRole('combobox', { name: 'Preset to apply' }).click();
+    await page.getByRole('option', { name: /^Trap 808 tuck · v\d+$/ }).click();
+    await page.getByRole('button', { name: 'Apply', exact: true }).click();
+    await expect.poll(() => page.locator('tl-lane-preset .origin').textContent()).toMatch(/From preset Trap 808 tuck v\d+/);
+    const lane = await page.evaluate(async () => {
+      const me = await (await fetch('/api/auth/me')).json();
+      const teamId = me.teams[0].id as string;
+      const songs = await (await fetch(`/api/teams/${teamId}/songs?q=Night%20Ferry`)).json();
+      const lanes = await (await fetch(`/api/teams/${teamId}/songs/${songs.items[0].id}/lanes`)).json();
+      return lanes[0] as { presetName: string; presetVersion: number; presetLatestVersion: number };
+    });
+    expect(lane.presetName).toBe('Trap 808 tuck');
+    expect(lane.presetVersion).toBe(lane.presetLatestVersion);
+    // Making presets is for engineers and owners.
+    expect(await page.getByRole('button', { name: 'Save as preset…' }).count()).toBe(0);
+    await shot(page, 'lane-preset-applied');
   });
 
   it('refuses the same link a second time with a clear message', async () => {

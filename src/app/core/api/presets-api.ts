@@ -2,6 +2,7 @@ import { HttpClient, HttpContext, HttpParams } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
 import { Observable } from 'rxjs';
 import { PresetContentInput, PresetDto, PresetSave, PresetStatus, PresetVersionDto, presetSortKeys } from '../../../../shared/schemas/preset';
+import type { LaneDto } from '../../../../shared/schemas/lane';
 import { INLINE_ERRORS } from '../http/api-error';
 import { enc } from './songs-api';
 
@@ -65,6 +66,16 @@ export class PresetsApi {
   /** Where the browser downloads the preset file from (the server names it). */
   exportUrl(teamId: string, presetId: string): string {
     return `${this.base(teamId)}/${enc(presetId)}/export`;
+  }
+
+  /** Copies a preset's shape and gate threshold onto a lane (docs/api.md, "Team library"). */
+  applyToLane(teamId: string, songId: string, laneId: string, presetId: string): Observable<LaneDto> {
+    return this.http.post<LaneDto>(`/api/teams/${enc(teamId)}/songs/${enc(songId)}/lanes/${enc(laneId)}/apply-preset`, { presetId }, inline());
+  }
+
+  /** A new draft preset from a lane's saved shape. */
+  fromLane(teamId: string, body: { songId: string; laneId: string; name: string; genre: string; notes?: string }): Observable<PresetDto> {
+    return this.http.post<PresetDto>(`${this.base(teamId)}/from-lane`, body, inline());
   }
 
   /** The parsed file as it is: the server validates it and refuses it whole. */

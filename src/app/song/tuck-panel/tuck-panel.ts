@@ -11,13 +11,14 @@ import { MatTooltipModule } from '@angular/material/tooltip';
 import { filter, switchMap } from 'rxjs';
 import { LaneDto } from '../../../../shared/schemas/lane';
 import { ConfirmDialog, ConfirmDialogData } from '../../ui/confirm-dialog/confirm-dialog';
+import { LanePreset } from '../lane-preset/lane-preset';
 import { TuckEditor } from '../tuck-editor/tuck-editor';
 import { WorkspaceStore } from '../workspace/workspace-store';
 
 /** The lanes of the song and the shape editor of the one picked. */
 @Component({
   selector: 'tl-tuck-panel',
-  imports: [FormsModule, MatButtonModule, MatFormFieldModule, MatInputModule, MatSelectModule, MatSlideToggleModule, MatTooltipModule, TuckEditor],
+  imports: [FormsModule, MatButtonModule, MatFormFieldModule, MatInputModule, MatSelectModule, MatSlideToggleModule, MatTooltipModule, TuckEditor, LanePreset],
   templateUrl: './tuck-panel.html',
   styleUrl: './tuck-panel.scss',
   changeDetection: ChangeDetectionStrategy.OnPush,
