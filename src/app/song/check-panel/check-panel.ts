@@ -58,6 +58,7 @@ export class CheckPanel {
     this.api.report(song.teamId, song.id).subscribe({
       next: (r) => {
         this.report.set(r);
+        this.store.checked.set(true);
         this.measuring.set(false);
       },
       error: (e: unknown) => {

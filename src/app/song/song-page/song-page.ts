@@ -70,6 +70,7 @@ export class SongPage {
       hasBassStem: stems.length ? this.store.bassStems().length > 0 : undefined,
       lanesWithShape: this.store.hitMap() ? this.store.lanes().length : 0,
       exportCount: this.store.exports().length,
+      checked: this.store.checked(),
     });
   });
   protected readonly errorMessage = computed(() => {

@@ -42,6 +42,8 @@ export class WorkspaceStore {
   readonly exports = signal<ExportDto[]>([]);
   readonly loading = signal(false);
   readonly detecting = signal(false);
+  /** The headroom report has been measured for the song as it is now (the Check step sets it). */
+  readonly checked = signal(false);
 
   private readonly overviews = signal<Record<string, StemOverview>>({});
   private readonly activities = signal<Record<string, BassActivityLevels>>({});
