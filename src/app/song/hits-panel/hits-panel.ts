@@ -1,3 +1,4 @@
+import type { DetectRequest } from '../../../../shared/schemas/hit-map';
 import { ChangeDetectionStrategy, Component, DestroyRef, computed, inject, input, signal } from '@angular/core';
 import { takeUntilDestroyed } from '@angular/core/rxjs-interop';
 import { FormsModule } from '@angular/forms';
@@ -8,7 +9,7 @@ import { MatInputModule } from '@angular/material/input';
 import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSliderModule } from '@angular/material/slider';
 import { Subscription } from 'rxjs';
-import { detectionOptionsSchema } from '../../../../shared/schemas/hit';
+import { midiKickOptionsSchema, detectionOptionsSchema } from '../../../../shared/schemas/hit';
 import { HitChange, HitTable } from '../hit-table/hit-table';
 import { WorkspaceStore } from '../workspace/workspace-store';
 
@@ -35,10 +36,31 @@ export class HitsPanel {
   protected readonly summary = computed(() => this.store.hitMap()?.revisionSummary ?? null);
   protected readonly hasKick = computed(() => this.store.kickStem() !== null);
 
+  /** A MIDI kick part: detection reads its notes, so the options are which notes and which channel. */
+  protected readonly isMidiKick = computed(() => this.store.kickStem()?.format === 'midi');
+  protected readonly midiNotes = signal('35, 36');
+  protected readonly midiChannel = signal<number | null>(10);
+  protected readonly midiError = signal<string | null>(null);
+
   protected detect(): void {
+    if (this.isMidiKick()) {
+      const notes = this.midiNotes().split(/[\s,]+/).filter(Boolean).map(Number);
+      const parsed = midiKickOptionsSchema.safeParse({ notes, channel: this.midiChannel() || null });
+      if (!parsed.success) {
+        this.midiError.set('Kick notes are MIDI note numbers 0–127, and the channel 1–16 or empty.');
+        return;
+      }
+      this.midiError.set(null);
+      this.run({ midi: parsed.data });
+      return;
+    }
     const parsed = detectionOptionsSchema.safeParse({ sensitivity: this.sensitivity(), minGapMs: this.minGapMs(), lowBandHz: this.lowBandHz() });
     if (!parsed.success) return;
-    this.detection = this.store.detect({ detection: parsed.data }).pipe(takeUntilDestroyed(this.destroyRef)).subscribe({
+    this.run({ detection: parsed.data });
+  }
+
+  private run(request: DetectRequest): void {
+    this.detection = this.store.detect(request).pipe(takeUntilDestroyed(this.destroyRef)).subscribe({
       next: () => (this.detection = null),
       error: () => (this.detection = null),
     });

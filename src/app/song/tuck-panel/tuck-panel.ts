@@ -1,3 +1,4 @@
+import { forkJoin } from 'rxjs';
 import { LiveAnnouncer } from '@angular/cdk/a11y';
 import { ChangeDetectionStrategy, Component, computed, inject, input, signal } from '@angular/core';
 import { FormsModule } from '@angular/forms';
@@ -70,6 +71,17 @@ export class TuckPanel {
 
   protected setGate(lane: LaneDto, on: boolean): void {
     this.store.patchLane(lane, { gateEnabled: on }).subscribe();
+  }
+
+  /** Swaps a lane with its neighbour; the order is the lanes' stored positions. */
+  protected move(lane: LaneDto, delta: -1 | 1): void {
+    const list = this.store.lanes();
+    const i = list.findIndex((l) => l.id === lane.id);
+    const j = i + delta;
+    if (i < 0 || j < 0 || j >= list.length) return;
+    forkJoin([this.store.patchLane(list[i], { position: j }), this.store.patchLane(list[j], { position: i })]).subscribe(() =>
+      this.store.lanes.update((lanes) => [...lanes].sort((a, b) => a.position - b.position)),
+    );
   }
 
   protected remove(lane: LaneDto): void {
