@@ -74,4 +74,18 @@ describe('Check step in Chromium', () => {
     await page.screenshot({ path: join(screenshots, 'check-preview.png') });
     await page.getByRole('button', { name: 'Pause' }).click();
   });
+
+  it('deletes a song only after asking, and the list no longer has it', async () => {
+    await page.goto(`${server.url}/songs`);
+    await page.getByText('Copper Rain').first().click();
+    await page.getByRole('button', { name: 'Delete song' }).click();
+    await page.getByRole('button', { name: 'Cancel' }).click();
+    expect(await page.locator('h1').textContent()).toContain('Copper Rain');
+    await page.getByRole('button', { name: 'Delete song' }).click();
+    await page.getByRole('dialog').getByRole('button', { name: 'Delete song' }).click();
+    await page.waitForURL(/\/songs$/);
+    await expect.poll(() => page.locator('tr.song-row').allTextContents()).not.toContainEqual(expect.stringContaining('Copper Rain'));
+    const left = await server.ctx.db.$client.query("select count(*)::int n from songs where title = 'Copper Rain'");
+    expect(left.rows[0].n).toBe(0);
+  });
 });

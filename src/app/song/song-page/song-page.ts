@@ -79,6 +79,7 @@ export class SongPage {
   });
   protected readonly canEdit = computed(() => this.auth.role() !== null && this.auth.can('editSongs'));
   protected readonly canPrepare = computed(() => this.auth.role() !== null && this.auth.can('prepareSongs'));
+  protected readonly canDelete = computed(() => this.auth.role() !== null && this.auth.can('deleteSongs'));
   protected readonly canEditLanes = computed(() => this.auth.role() !== null && this.auth.can('editLanes'));
   protected readonly canExport = computed(() => this.auth.role() !== null && this.auth.can('export'));
 
@@ -109,6 +110,23 @@ export class SongPage {
       .afterClosed()
       .subscribe((updated) => {
         if (updated) this.store.song.set(updated);
+      });
+  }
+
+  /** Deletes the song with its stems, hits, lanes and exports, after asking. */
+  protected removeSong(song: Song): void {
+    const data: ConfirmDialogData = {
+      title: `Delete "${song.title}"?`,
+      message: 'Its stems, hits, lanes and exports go with it. This cannot be undone.',
+      confirmLabel: 'Delete song',
+    };
+    this.dialog
+      .open<ConfirmDialog, ConfirmDialogData, boolean>(ConfirmDialog, { data })
+      .afterClosed()
+      .subscribe((ok) => {
+        if (!ok) return;
+        this.store.discardAll();
+        this.api.remove(song.teamId, song.id).subscribe(() => void this.router.navigate(['/songs']));
       });
   }
 

@@ -324,6 +324,11 @@ export class WorkspaceStore {
     );
   }
 
+  /** Drops every unsaved edit (the song is going away). */
+  discardAll(): void {
+    for (const lane of this.lanes()) this.discardShape(lane);
+  }
+
   discardShape(lane: LaneDto): void {
     this.historyFor(lane)?.reset(lane.shape);
     this.setDraft(lane, lane.shape);
