@@ -105,8 +105,18 @@ describe('song workspace in Chromium', () => {
     await page.mouse.move(box.x + box.width / 2 + 2, box.y + box.height / 2 + 40, { steps: 6 });
     await page.mouse.up();
     await expect.poll(() => curve.getAttribute('d')).not.toBe(before);
-    const depth = Number(await depthField.inputValue());
+    // Wait until the drag has settled (two equal reads in a row) before reading its depth.
+    let depth = Number.NaN;
+    await expect
+      .poll(async () => {
+        const v = Number(await depthField.inputValue());
+        const settled = v === depth;
+        depth = v;
+        return settled;
+      })
+      .toBe(true);
     expect(depth).toBeLessThan(-18);
+    await expect.poll(() => page.evaluate(() => document.activeElement?.getAttribute('data-index'))).toBe('1');
     // The keyboard twin: the point keeps focus; ArrowUp raises it 1 dB, Shift+ArrowUp 0.1 dB.
     await page.keyboard.press('ArrowUp');
     await page.keyboard.press('Shift+ArrowUp');
