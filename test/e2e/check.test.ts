@@ -3,6 +3,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import supertest from 'supertest';
+import { renderDemoStems } from '../../server/seed/demo-stems';
 import { startAppServer, type AppServer } from '../helpers/app-server';
 
 // The Check step in Chromium against the real server: the demo song "Night Ferry" is seeded with
@@ -87,5 +89,22 @@ describe('Check step in Chromium', () => {
     await expect.poll(() => page.locator('tr.song-row').allTextContents()).not.toContainEqual(expect.stringContaining('Copper Rain'));
     const left = await server.ctx.db.$client.query("select count(*)::int n from songs where title = 'Copper Rain'");
     expect(left.rows[0].n).toBe(0);
+  });
+
+  it('marks what a new kick revision changed on the timeline until it is acknowledged', async () => {
+    // A new kick revision for Night Ferry with one more hit per bar (pattern 0, 6, 10, 14), uploaded through the API.
+    const agent = supertest.agent(server.ctx.app);
+    await agent.post('/api/auth/sign-in').send({ email: 'engineer@tuckline.test', password: 'tuckline-demo' }).expect(200);
+    const teamId = (await agent.get('/api/teams')).body[0].id;
+    const song = (await agent.get(`/api/teams/${teamId}/songs?q=Night%20Ferry`)).body.items[0];
+    const revised = renderDemoStems({ bpm: song.bpm, bars: 16, silentBassBars: [8, 9], pattern: [0, 6, 10, 14] });
+    const up = await agent.post(`/api/teams/${teamId}/songs/${song.id}/stems`).field('role', 'kick').attach('file', Buffer.from(revised.kickWav), 'NightFerry_Kick_v2.wav');
+    expect(up.status).toBe(201);
+    expect(up.body.hitMap.revisionSummary.added).toHaveLength(16);
+    await page.goto(`${server.url}/songs/${song.id}?step=hits`);
+    await expect.poll(() => page.locator('tl-timeline g.flag.flag-added').count()).toBe(16);
+    await page.screenshot({ path: join(screenshots, 'workspace-revision.png') });
+    await page.getByRole('button', { name: 'Got it' }).click();
+    await expect.poll(() => page.locator('tl-timeline g.flag').count()).toBe(0);
   });
 });

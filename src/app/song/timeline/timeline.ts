@@ -34,6 +34,8 @@ export class Timeline {
   readonly curves = input<LaneCurveView[]>([]);
   readonly selectedLaneId = input<string | null>(null);
   readonly selectedHit = input<number | null>(null);
+  /** What a new kick revision changed (until acknowledged): drawn as small labelled flags above the kick row. */
+  readonly revision = input<{ added: number[]; removed: number[]; moved: [number, number][] } | null>(null);
 
   readonly selectHit = output<number>();
   readonly toggleHit = output<number>();
@@ -216,6 +218,30 @@ export class Timeline {
     marks.select('line').attr('y1', kickTop + 10).attr('y2', bassTop + rows.bass);
     marks.select('circle').attr('cy', kickTop + 8).attr('r', (h) => (h.index === sel ? 7 : 5));
     marks.select('title').text((h) => `Hit ${h.number} · ${h.timeSec.toFixed(3)} s · ${h.status === 'tucked' ? 'on' : h.status === 'off' ? 'off' : 'skipped by the bass gate'}`);
+
+    // Changes from the kick's new revision, until the engineer acknowledges them.
+    const rev = this.revision();
+    const flags = rev
+      ? [
+          ...rev.added.map((t) => ({ t, kind: 'added', label: 'new' })),
+          ...rev.removed.map((t) => ({ t, kind: 'removed', label: 'gone' })),
+          ...rev.moved.map(([, t]) => ({ t, kind: 'moved', label: 'moved' })),
+        ].filter((f) => f.t >= v.t0 && f.t <= v.t1)
+      : [];
+    svg.selectAll<SVGGElement, null>('g.revision').data([null]).join('g').attr('class', 'revision')
+      .selectAll<SVGGElement, (typeof flags)[number]>('g.flag').data(flags.length > 2000 ? [] : flags)
+      .join((en) => {
+        const g = en.append('g');
+        // A small triangle under the hit marker, pointing at the hit; the word only when zoomed in far enough to read it.
+        g.append('path').attr('d', 'M0,0 L-4,6 L4,6 Z');
+        g.append('text').attr('x', 6).attr('y', 7);
+        g.append('title');
+        return g;
+      })
+      .attr('class', (f) => `flag flag-${f.kind}`)
+      .attr('transform', (f) => `translate(${x(f.t)},${kickTop + 15})`)
+      .call((g) => g.select('text').text((f) => (flags.length <= 12 ? f.label : '')))
+      .call((g) => g.select('title').text((f) => `${f.label === 'new' ? 'New hit' : f.label === 'gone' ? 'Hit no longer found' : 'Hit moved'} at ${f.t.toFixed(3)} s (new kick revision)`));
 
     // Range being selected (Shift+drag).
     const r = this.range();
