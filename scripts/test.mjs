@@ -55,6 +55,12 @@ function ngTest() {
 }
 
 step('system packages', () => ensurePackages(needs.test));
+step('type check (server, pure shared/, browser tests)', () => {
+  const tsc = join(root, 'node_modules/typescript/bin/tsc');
+  return ['tsconfig.server.json', 'shared/tsconfig.json', 'test/e2e/tsconfig.json'].every(
+    (project) => spawnSync(process.execPath, [tsc, '-p', project, '--noEmit'], { cwd: root, stdio: 'inherit', env }).status === 0,
+  );
+});
 step('web build', () => buildWeb());
 step('shared, server, reference and API tests (vitest)', () => vitest('node', ['unit', 'reference', 'api']));
 step('Angular component tests (ng test)', () => ngTest());

@@ -1,39 +1,29 @@
-import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import supertest from 'supertest';
 import { renderDemoStems } from '../../server/seed/demo-stems';
 import { startAppServer, type AppServer } from '../helpers/app-server';
+import { launchChromium, screenshotsDir, type Browser } from '../helpers/browser';
 
 // The Check step in Chromium against the real server: the demo song "Night Ferry" is seeded with
 // generated kick and 808 stems and one lane (server/seed/seed-demo.ts). Needs a prior `ng build`.
-const screenshots = join(import.meta.dirname, '../../docs/screenshots');
+const screenshots = screenshotsDir;
 
 describe('Check step in Chromium', () => {
   let server: AppServer;
-  let context: BrowserContext;
+  let browser: Browser;
   let page: Page;
-  let profile: string;
 
   beforeAll(async () => {
     server = await startAppServer();
-    profile = mkdtempSync(join(tmpdir(), 'tuckline-e2e-check-'));
-    mkdirSync(screenshots, { recursive: true });
-    context = await chromium.launchPersistentContext(profile, {
-      executablePath: '/usr/bin/chromium',
-      headless: true,
-      viewport: { width: 1360, height: 1000 },
-      args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--autoplay-policy=no-user-gesture-required'],
-    });
-    page = context.pages()[0] ?? (await context.newPage());
+    browser = await launchChromium({ viewport: { width: 1360, height: 1000 }, extraArgs: ['--autoplay-policy=no-user-gesture-required'] });
+    page = browser.page;
   });
 
   afterAll(async () => {
-    await context?.close();
+    await browser?.close();
     await server?.stop();
-    if (profile) rmSync(profile, { recursive: true, force: true });
   });
 
   it('shows the headroom gained on the demo song, as the API measures it', async () => {

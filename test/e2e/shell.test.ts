@@ -1,37 +1,27 @@
-import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startAppServer, type AppServer } from '../helpers/app-server';
+import { launchChromium, screenshotsDir, type Browser } from '../helpers/browser';
 
 // The client shell in a real browser against the real server and a freshly seeded database.
 // Needs a prior `ng build` (dist/web/browser).
-const screenshots = join(import.meta.dirname, '../../docs/screenshots');
+const screenshots = screenshotsDir;
 
 describe('client shell in Chromium', () => {
   let server: AppServer;
-  let context: BrowserContext;
+  let browser: Browser;
   let page: Page;
-  let profile: string;
 
   beforeAll(async () => {
     server = await startAppServer();
-    profile = mkdtempSync(join(tmpdir(), 'tuckline-e2e-'));
-    mkdirSync(screenshots, { recursive: true });
-    context = await chromium.launchPersistentContext(profile, {
-      executablePath: '/usr/bin/chromium',
-      headless: true,
-      viewport: { width: 1360, height: 860 },
-      args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
-    });
-    page = context.pages()[0] ?? (await context.newPage());
+    browser = await launchChromium();
+    page = browser.page;
   });
 
   afterAll(async () => {
-    await context?.close();
+    await browser?.close();
     await server?.stop();
-    if (profile) rmSync(profile, { recursive: true, force: true });
   });
 
   const shot = (name: string) => page.screenshot({ path: join(screenshots, `${name}.png`) });

@@ -22,7 +22,7 @@ export interface TestContext {
 }
 
 /** A fresh database copied from the migrated template, and an app around it. */
-export async function createTestContext(overrides: Partial<AppDeps> & { config?: Partial<AppConfig> } = {}): Promise<TestContext> {
+export async function createTestContext(overrides: Omit<Partial<AppDeps>, 'config'> & { config?: Partial<AppConfig> } = {}): Promise<TestContext> {
   const port = inject('pgPort');
   const name = `t_${randomUUID().replaceAll('-', '')}`;
   await ensureDatabase(port, name, inject('pgTemplate'));
