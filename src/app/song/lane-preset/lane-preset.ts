@@ -12,7 +12,7 @@ import { genreSchema, type PresetDto } from '../../../../shared/schemas/preset';
 import { PresetsApi } from '../../core/api/presets-api';
 import { AuthService } from '../../core/auth/auth.service';
 import { toApiFailure } from '../../core/http/api-error';
-import { ConfirmDialog, ConfirmDialogData } from '../../ui/confirm-dialog/confirm-dialog';
+import { confirmed } from '../../ui/confirm-dialog/confirm-dialog';
 import { WorkspaceStore } from '../workspace/workspace-store';
 
 /**
@@ -93,13 +93,11 @@ export class LanePreset {
       });
     };
     if (!dirty) return go();
-    this.dialog
-      .open<ConfirmDialog, ConfirmDialogData, boolean>(ConfirmDialog, {
-        data: { title: 'Replace your unsaved edits?', message: `${lane.name} has tuck edits that are not saved. Applying the preset replaces the shape with the preset's.`, confirmLabel: 'Apply preset' },
-      })
-      .afterClosed()
-      .pipe(filter((ok) => ok === true))
-      .subscribe(go);
+    confirmed(this.dialog, {
+      title: 'Replace your unsaved edits?',
+      message: `${lane.name} has tuck edits that are not saved. Applying the preset replaces the shape with the preset's.`,
+      confirmLabel: 'Apply preset',
+    }).subscribe(go);
   }
 
   protected saveAsPreset(): void {

@@ -10,7 +10,7 @@ import { SongsApi } from '../../core/api/songs-api';
 import { AuthService } from '../../core/auth/auth.service';
 import { toApiFailure } from '../../core/http/api-error';
 import { SongFormDialog, SongFormDialogData } from '../../songs/song-form-dialog/song-form-dialog';
-import { ConfirmDialog, ConfirmDialogData } from '../../ui/confirm-dialog/confirm-dialog';
+import { ConfirmDialog, ConfirmDialogData, confirmed } from '../../ui/confirm-dialog/confirm-dialog';
 import { Icon } from '../../ui/icon/icon';
 import { CheckPanel } from '../check-panel/check-panel';
 import { ExportPanel } from '../export-panel/export-panel';
@@ -120,14 +120,10 @@ export class SongPage {
       message: 'Its stems, hits, lanes and exports go with it. This cannot be undone.',
       confirmLabel: 'Delete song',
     };
-    this.dialog
-      .open<ConfirmDialog, ConfirmDialogData, boolean>(ConfirmDialog, { data })
-      .afterClosed()
-      .subscribe((ok) => {
-        if (!ok) return;
+    confirmed(this.dialog, data).subscribe(() => {
         this.store.discardAll();
         this.api.remove(song.teamId, song.id).subscribe(() => void this.router.navigate(['/songs']));
-      });
+    });
   }
 
   protected toggleHit(index: number): void {

@@ -10,14 +10,14 @@ import { MatProgressBarModule } from '@angular/material/progress-bar';
 import { MatSelectModule } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatTableModule } from '@angular/material/table';
-import { filter, switchMap } from 'rxjs';
+import { switchMap } from 'rxjs';
 import { InvitationDto, invitationCreateSchema } from '../../../../shared/schemas/invitation';
 import { Role, roles } from '../../../../shared/schemas/team';
 import { InvitationsApi } from '../../core/api/invitations-api';
 import { AuthService } from '../../core/auth/auth.service';
 import { applyServerIssues, fieldError, zodValidator } from '../../core/forms/zod-validator';
 import { toApiFailure } from '../../core/http/api-error';
-import { ConfirmDialog, ConfirmDialogData } from '../../ui/confirm-dialog/confirm-dialog';
+import { ConfirmDialogData, confirmed } from '../../ui/confirm-dialog/confirm-dialog';
 import { Icon } from '../../ui/icon/icon';
 import { RoleChip } from '../../ui/role-chip/role-chip';
 
@@ -111,11 +111,8 @@ export class TeamInvitations {
       message: `The link in their e-mail stops working. You can invite ${inv.email} again later.`,
       confirmLabel: 'Revoke invitation',
     };
-    this.dialog
-      .open<ConfirmDialog, ConfirmDialogData, boolean>(ConfirmDialog, { data, width: '440px' })
-      .afterClosed()
+    confirmed(this.dialog, data)
       .pipe(
-        filter((ok) => ok === true),
         switchMap(() => {
           this.pending.set(inv.id);
           return this.api.revoke(team.id, inv.id);

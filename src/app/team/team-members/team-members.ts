@@ -9,12 +9,12 @@ import { MatSelectModule } from '@angular/material/select';
 import { MatSnackBar } from '@angular/material/snack-bar';
 import { MatTableModule } from '@angular/material/table';
 import { MatTooltipModule } from '@angular/material/tooltip';
-import { filter, switchMap } from 'rxjs';
+import { switchMap } from 'rxjs';
 import { Member, Role, roles } from '../../../../shared/schemas/team';
 import { TeamApi } from '../../core/api/team-api';
 import { AuthService } from '../../core/auth/auth.service';
 import { toApiFailure } from '../../core/http/api-error';
-import { ConfirmDialog, ConfirmDialogData } from '../../ui/confirm-dialog/confirm-dialog';
+import { ConfirmDialogData, confirmed } from '../../ui/confirm-dialog/confirm-dialog';
 import { Icon } from '../../ui/icon/icon';
 import { RoleChip } from '../../ui/role-chip/role-chip';
 import { TeamInvitations } from '../team-invitations/team-invitations';
@@ -80,11 +80,8 @@ export class TeamMembers {
       message: `${member.displayName} (${member.email}) will lose access to ${team.name} and its songs. You can invite them again later.`,
       confirmLabel: 'Remove member',
     };
-    this.dialog
-      .open<ConfirmDialog, ConfirmDialogData, boolean>(ConfirmDialog, { data, width: '440px' })
-      .afterClosed()
+    confirmed(this.dialog, data)
       .pipe(
-        filter((ok) => ok === true),
         switchMap(() => {
           this.pending.set(member.userId);
           return this.api.remove(team.id, member.userId);

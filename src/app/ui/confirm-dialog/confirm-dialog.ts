@@ -1,6 +1,7 @@
 import { ChangeDetectionStrategy, Component, inject } from '@angular/core';
 import { MatButtonModule } from '@angular/material/button';
-import { MAT_DIALOG_DATA, MatDialogModule } from '@angular/material/dialog';
+import { MAT_DIALOG_DATA, MatDialog, MatDialogModule } from '@angular/material/dialog';
+import { Observable, filter } from 'rxjs';
 
 export interface ConfirmDialogData {
   title: string;
@@ -25,4 +26,12 @@ export interface ConfirmDialogData {
 })
 export class ConfirmDialog {
   protected readonly data = inject<ConfirmDialogData>(MAT_DIALOG_DATA);
+}
+
+/** Asks with the confirm dialog; emits once, only when the person goes ahead. */
+export function confirmed(dialog: MatDialog, data: ConfirmDialogData, width = '440px'): Observable<true> {
+  return dialog
+    .open<ConfirmDialog, ConfirmDialogData, boolean>(ConfirmDialog, { data, width })
+    .afterClosed()
+    .pipe(filter((ok): ok is true => ok === true));
 }
