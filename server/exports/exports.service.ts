@@ -13,9 +13,9 @@ import type { FileStore } from '../storage/file-store';
 import { users } from '../users/users.table';
 import { exportFileName } from './export-file-name';
 import { exportsTable } from './exports.table';
+import { isUuid } from '../http/ids';
 
 type ExportRow = typeof exportsTable.$inferSelect;
-const isUuid = (id: string) => /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id);
 export const exportNotFound = () => notFound('exports.not_found', 'That export does not exist in this song.');
 
 export function createExportsService(deps: { db: Database; store: FileStore; songs: SongsRepository; lanes: LanesService }) {

@@ -4,11 +4,11 @@ import type { LaneDto } from '../../shared/schemas/lane';
 import type { Database } from '../db/client';
 import { conflict, notFound } from '../http/errors';
 import { lanes } from './lanes.table';
+import { isUuid } from '../http/ids';
 
 export type LaneRow = typeof lanes.$inferSelect;
 
 export const laneNotFound = () => notFound('lanes.not_found', 'That lane does not exist in this song.');
-const isUuid = (id: string) => /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id);
 
 export function toLaneDto(row: LaneRow): LaneDto {
   return {

@@ -1,7 +1,7 @@
 import { Router } from 'express';
 import type { FakeSmtp } from './fake-smtp';
+import { escapeHtml } from '../http/html';
 
-const escape = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 
 /**
  * `/dev/mail`: the messages the local SMTP fake caught, for development only
@@ -13,7 +13,7 @@ export function devInboxRoutes(fake: FakeSmtp): Router {
     const rows = fake
       .messages()
       .reverse()
-      .map((m) => `<tr><td>${escape(m.receivedAt.replace('T', ' ').slice(0, 19))}</td><td>${escape(m.to.join(', '))}</td><td><a href="/dev/mail/${m.id}">${escape(m.subject)}</a></td></tr>`)
+      .map((m) => `<tr><td>${escapeHtml(m.receivedAt.replace('T', ' ').slice(0, 19))}</td><td>${escapeHtml(m.to.join(', '))}</td><td><a href="/dev/mail/${m.id}">${escapeHtml(m.subject)}</a></td></tr>`)
       .join('');
     res.type('html').send(`<!doctype html><meta charset="utf-8"><title>Tuckline · local mail</title>
 <body style="font-family:sans-serif;max-width:900px;margin:24px auto"><h1>Local mail</h1>
@@ -27,10 +27,10 @@ export function devInboxRoutes(fake: FakeSmtp): Router {
       return;
     }
     // The text part, shown as text: links stay clickable by hand, nothing from the message runs here.
-    const linked = escape(message.text).replace(/(https?:\/\/[^\s<]+)/g, '<a href="$1">$1</a>');
-    res.type('html').send(`<!doctype html><meta charset="utf-8"><title>${escape(message.subject)}</title>
+    const linked = escapeHtml(message.text).replace(/(https?:\/\/[^\s<]+)/g, '<a href="$1">$1</a>');
+    res.type('html').send(`<!doctype html><meta charset="utf-8"><title>${escapeHtml(message.subject)}</title>
 <body style="font-family:sans-serif;max-width:760px;margin:24px auto"><p><a href="/dev/mail">← all messages</a></p>
-<h1>${escape(message.subject)}</h1><p>To: ${escape(message.to.join(', '))} · From: ${escape(message.from)}</p><pre style="white-space:pre-wrap;font-family:inherit">${linked}</pre></body>`);
+<h1>${escapeHtml(message.subject)}</h1><p>To: ${escapeHtml(message.to.join(', '))} · From: ${escapeHtml(message.from)}</p><pre style="white-space:pre-wrap;font-family:inherit">${linked}</pre></body>`);
   });
   return router;
 }

@@ -1,14 +1,14 @@
 import type { OutgoingMail } from './mailer';
+import { escapeHtml } from '../http/html';
 
-const escape = (s: string) => s.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
 
 function layout(heading: string, paragraphs: string[], link: { href: string; label: string }, footnote: string): string {
   return `<!doctype html><html><body style="font-family:'Source Sans 3',Arial,sans-serif;color:#1b2230;max-width:560px;margin:24px auto;line-height:1.5">
-<h1 style="font-size:20px">${escape(heading)}</h1>
-${paragraphs.map((p) => `<p>${escape(p)}</p>`).join('\n')}
-<p><a href="${escape(link.href)}" style="display:inline-block;background:#0f7c86;color:#fff;padding:10px 16px;border-radius:6px;text-decoration:none">${escape(link.label)}</a></p>
-<p style="font-size:13px;color:#5a6473">${escape(footnote)}</p>
-<p style="font-size:13px;color:#5a6473">If the button does not work, open this address: ${escape(link.href)}</p>
+<h1 style="font-size:20px">${escapeHtml(heading)}</h1>
+${paragraphs.map((p) => `<p>${escapeHtml(p)}</p>`).join('\n')}
+<p><a href="${escapeHtml(link.href)}" style="display:inline-block;background:#0f7c86;color:#fff;padding:10px 16px;border-radius:6px;text-decoration:none">${escapeHtml(link.label)}</a></p>
+<p style="font-size:13px;color:#5a6473">${escapeHtml(footnote)}</p>
+<p style="font-size:13px;color:#5a6473">If the button does not work, open this address: ${escapeHtml(link.href)}</p>
 </body></html>`;
 }
 

@@ -6,10 +6,10 @@ import { conflict, notFound } from '../http/errors';
 import { users } from '../users/users.table';
 import { presets, presetVersions } from './presets.table';
 import { starterPresets } from './starter-presets';
+import { isUuid } from '../http/ids';
 
 export const presetNotFound = () => notFound('presets.not_found', 'That preset does not exist in this team.');
 export const presetNameTaken = () => conflict('presets.name_taken', 'This team already has a preset of that name in that genre. Pick another name.');
-const isUuid = (id: string) => /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id);
 
 type PresetRow = typeof presets.$inferSelect;
 

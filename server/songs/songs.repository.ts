@@ -6,6 +6,7 @@ import { notFound } from '../http/errors';
 import { stems } from '../stems/stems.table';
 import { users } from '../users/users.table';
 import { songs } from './songs.table';
+import { isUuid } from '../http/ids';
 
 export interface SongValues {
   title: string;
@@ -33,7 +34,6 @@ function toColumns<V extends Partial<SongValues>>(values: V) {
   };
 }
 
-const isUuid = (id: string) => /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id);
 
 export function createSongsRepository(db: Database) {
   const stemCount = sql<number>`(select count(*)::int from ${stems} where ${stems.songId} = ${songs.id} and ${stems.isCurrent})`;

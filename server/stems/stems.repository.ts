@@ -3,13 +3,13 @@ import type { Database, Executor } from '../db/client';
 import { notFound } from '../http/errors';
 import { users } from '../users/users.table';
 import { stems } from './stems.table';
+import { isUuid } from '../http/ids';
 
 export type StemRow = typeof stems.$inferSelect;
 export type NewStem = Omit<typeof stems.$inferInsert, 'revision' | 'isCurrent' | 'id'> & { id: string };
 
 export const stemNotFound = () => notFound('stems.not_found', 'That stem does not exist in this song.');
 
-const isUuid = (id: string) => /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i.test(id);
 
 export function toStemDto(row: StemRow & { uploaderName?: string | null }) {
   return {
