@@ -1,5 +1,6 @@
 import type { GainCurve } from './gain-curve';
 import { sampleGainCurve } from './gain';
+import { mixdownInto } from './mixdown';
 import { applyGains, levelFigures, sumStems, windowPeakDbfs, type LevelFigures } from './headroom';
 import { phaseCheck, type HitPhase, type PhaseSuggestion } from './phase-check';
 
@@ -22,10 +23,11 @@ export interface HeadroomResult {
   phase: { laneId: string; hits: (HitPhase & { hitId: string })[]; suggestion: PhaseSuggestion } | null;
 }
 
+/** The mean of the channels (shared/dsp/mixdown.ts); a mono stem is used as it is. */
 function mono(channels: readonly Float32Array[]): Float32Array {
   if (channels.length === 1) return channels[0];
   const out = new Float32Array(channels[0].length);
-  for (const ch of channels) for (let i = 0; i < ch.length; i++) out[i] += ch[i] / channels.length;
+  mixdownInto(channels, out);
   return out;
 }
 
