@@ -1,11 +1,15 @@
 import { open, readFile, stat } from 'node:fs/promises';
-import { detectionOptionsSchema, type DetectionOptions, type Hit, type MidiKickOptions } from '../../shared/schemas/hit';
+import type { DetectionOptions, Hit, MidiKickOptions } from '../../shared/schemas/hit';
+import { withDetectionDefaults } from '../../shared/schemas/hit-defaults';
 import { detectOnsetsWithLowBand } from '../../shared/dsp/onsets';
-import { createLowBandBuilder, finishLowBand, pushLowBand } from '../../shared/dsp/low-band';
+import { createLowBandBuilder, finishLowBand, lowBandLength, pushLowBand, type LowBandBuilder } from '../../shared/dsp/low-band';
+import { findCandidates, finishHits, independentFrom, onsetGeometry, refineCandidates, type Candidate } from '../../shared/dsp/onsets';
+import { ONSET_BLOCK_FRAMES, predictionOnsetFrames, type PredictionOnsetFunction } from '../../shared/dsp/onset-function';
+import { canSplit, splitPlan, startTailWorker } from './detection-split';
 import { MidiFormatError, readMidiKicks } from '../../shared/formats/midi-read';
 import { sniffNonWav } from '../../shared/formats/wav-header';
 import { AudioInputError } from './audio-errors';
-import { decodeMonoInto, openWav, type MonoDecoder } from './wav-file';
+import { decodeMonoInto, openWav, type MonoDecoder, type OpenWav } from './wav-file';
 
 export interface DetectionResult {
   source: 'audio' | 'midi';
@@ -22,6 +26,14 @@ export interface DetectKickOptions {
   midi?: Partial<MidiKickOptions>;
   /** WAV decoding path (server/audio/wav-file.ts); 'direct' unless told. */
   decoder?: MonoDecoder;
+  /**
+   * 'auto' (default): songs of 40 s and longer are analysed on two threads
+   * when the machine has two cores and this runs as built code, the command
+   * line (server/audio/detection-split.ts canSplit); 1: one thread; 2: two
+   * threads wherever the song is long enough to split (~17 s at 48 kHz).
+   * The hits are the same.
+   */
+  threads?: 'auto' | 1 | 2;
 }
 
 /** MIDI files above this are refused before reading (an SMF of a song is kilobytes). */
@@ -52,18 +64,89 @@ async function sniff(path: string): Promise<'audio' | 'midi'> {
 export async function detectKickFile(path: string, opts: DetectKickOptions = {}): Promise<DetectionResult> {
   const kind = opts.kind ?? (await sniff(path));
   if (kind === 'midi') return detectMidi(path, opts.midi);
-  const detection = detectionOptionsSchema.parse(opts.detection ?? {});
+  const detection = withDetectionDefaults(opts.detection);
   const wav = await openWav(path);
   try {
     const { frames, sampleRate } = wav.info;
-    const mono = new Float32Array(frames);
     const band = createLowBandBuilder(sampleRate, frames, detection.lowBandHz);
-    await decodeMonoInto(wav, mono, opts.decoder ?? 'direct', (first, n) => pushLowBand(band, mono.subarray(first, first + n)));
-    const hits = detectOnsetsWithLowBand(mono, finishLowBand(band), sampleRate, detection);
-    return { source: 'audio', sampleRate, durationSec: wav.info.durationSec, hits };
+    const decoder = opts.decoder ?? 'direct';
+    const threads = opts.threads ?? 'auto';
+    const geometry = onsetGeometry(band.rateHz);
+    const plan = decoder === 'direct' && threads !== 1 && (threads === 2 || canSplit()) ? splitPlan(wav.layout, band.factor, geometry.hopSamples, threads === 2 ? 0 : undefined) : null;
+    if (!plan) {
+      const mono = new Float32Array(frames);
+      await decodeMonoInto(wav, mono, decoder, (first, n) => pushLowBand(band, mono.subarray(first, first + n)));
+      const hits = detectOnsetsWithLowBand(mono, finishLowBand(band), sampleRate, detection);
+      return { source: 'audio', sampleRate, durationSec: wav.info.durationSec, hits };
+    }
+    return { source: 'audio', sampleRate, durationSec: wav.info.durationSec, hits: await detectOnTwoThreads(path, wav, band, geometry, plan, detection) };
   } finally {
     await wav.close();
   }
+}
+
+/**
+ * The two-thread path (server/audio/detection-split.ts): the worker takes
+ * frames from plan.from on, this thread the rest; then the joins of the low
+ * band and of the onset function, and each thread refines half of the
+ * candidates. Gives exactly what detectOnsetsWithLowBand gives on one thread.
+ */
+async function detectOnTwoThreads(
+  path: string,
+  wav: OpenWav,
+  band: LowBandBuilder,
+  geometry: ReturnType<typeof onsetGeometry>,
+  plan: { from: number; warmFrom: number },
+  detection: DetectionOptions,
+): Promise<Hit[]> {
+  const { frames, sampleRate } = wav.info;
+  const shared = new SharedArrayBuffer(frames * Float32Array.BYTES_PER_ELEMENT);
+  const mono = new Float32Array(shared);
+  const helper = startTailWorker({ path, layout: wav.layout, mono: shared, ...plan, bandHz: detection.lowBandHz, ...geometry });
+  helper.tail.catch(() => undefined); // awaited below; a failure meanwhile must not go unhandled
+  try {
+    await decodeMonoInto(wav, mono, 'direct', (first, n) => pushLowBand(band, mono.subarray(first, first + n)), plan.from);
+    const total = lowBandLength(band, frames);
+    const hop = geometry.hopSamples;
+    const totalFrames = Math.ceil(total / hop);
+    const odf: PredictionOnsetFunction = { hopSamples: hop, riseDb: new Float32Array(totalFrames), energy: new Float64Array(totalFrames), innovation: new Float64Array(totalFrames) };
+    const headFrames = plan.from / (band.factor * hop);
+    // Every block but the last before the split reads only this thread's samples.
+    const early = Math.max(0, headFrames - ONSET_BLOCK_FRAMES);
+    predictionOnsetFrames(band.out, 0, total, hop, geometry.fitSamples, geometry.windowSamples, 0, early, odf, 0);
+    const rest = await helper.tail;
+    band.out.set(rest.band, band.written);
+    band.written += rest.band.length;
+    if (band.written !== total) throw new Error(`detection split: low band of ${band.written} samples, expected ${total}`);
+    predictionOnsetFrames(band.out, 0, total, hop, geometry.fitSamples, geometry.windowSamples, early, headFrames, odf, 0);
+    odf.riseDb.set(rest.riseDb, headFrames);
+    odf.energy.set(rest.energy, headFrames);
+    odf.innovation.set(rest.innovation, headFrames);
+    const lowBand = finishLowBand(band);
+    const candidates = findCandidates(lowBand, odf, detection);
+    const cut = refineSplit(candidates, sampleRate, detection);
+    if (cut === null) {
+      helper.close();
+      return finishHits(refineCandidates(mono, lowBand, candidates, 0, candidates.length, 0, sampleRate, detection), lowBand, sampleRate, detection);
+    }
+    const second = helper.refine({ candidates, from: cut, band: lowBand, opts: detection });
+    second.catch(() => undefined);
+    const first = refineCandidates(mono, lowBand, candidates, 0, cut, 0, sampleRate, detection);
+    return finishHits([...first, ...(await second)], lowBand, sampleRate, detection);
+  } finally {
+    helper.close();
+  }
+}
+
+/** The candidate nearest the middle from which the rest refines on its own (independentFrom); null when none is within the middle half. */
+function refineSplit(candidates: readonly Candidate[], sampleRateHz: number, opts: DetectionOptions): number | null {
+  const n = candidates.length;
+  const mid = n >> 1;
+  for (let d = 0; d <= n >> 2; d++) {
+    if (independentFrom(candidates, mid + d, sampleRateHz, opts)) return mid + d;
+    if (d > 0 && independentFrom(candidates, mid - d, sampleRateHz, opts)) return mid - d;
+  }
+  return null;
 }
 
 async function detectMidi(path: string, midi: Partial<MidiKickOptions> | undefined): Promise<DetectionResult> {

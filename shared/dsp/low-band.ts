@@ -101,6 +101,13 @@ export function pushLowBand(builder: LowBandBuilder, block: Float32Array): void 
   processCascadeInPlace(builder.band, builder.bandState, builder.out.subarray(start, builder.written));
 }
 
+/** How many low-band samples a builder gives for `totalFrames` full-rate samples (what finishLowBand will hold). */
+export function lowBandLength(builder: Pick<LowBandBuilder, 'factor' | 'preFactor'>, totalFrames: number): number {
+  const pairs = Math.floor(totalFrames / builder.preFactor);
+  const d = builder.factor / builder.preFactor;
+  return Math.min(Math.ceil(pairs / d), Math.ceil(totalFrames / builder.factor));
+}
+
 /** The finished low band. */
 export function finishLowBand(builder: LowBandBuilder): LowBand {
   return { samples: builder.out.subarray(0, builder.written), rateHz: builder.rateHz, factor: builder.factor };

@@ -24,6 +24,15 @@ export interface PredictionOnsetFunction {
 const ORDER = 4;
 
 /**
+ * The running covariance sums restart from zero every this many frames (8 s
+ * on the 1 ms grid): float64 sums that slide over a whole song would carry
+ * their rounding from the first frame to the last, and a block that starts
+ * afresh can be computed on its own (server/audio/detection-split.ts computes
+ * the second half of a song on another thread with the same result).
+ */
+export const ONSET_BLOCK_FRAMES = 8192;
+
+/**
  * Prediction-error onset function of `x` (the low band, ~2 kHz).
  * At each frame start s, a least-squares order-4 predictor
  * x̂[i] = Σ_{k=1..4} a_k·x[i−k] is fitted on the `fitSamples` before s
@@ -37,11 +46,54 @@ const ORDER = 4;
  * @param windowSamples length of the scoring window after each frame
  */
 export function predictionOnsetFunction(x: Float32Array, hopSamples: number, fitSamples: number, windowSamples: number): PredictionOnsetFunction {
-  const n = x.length;
-  const frames = Math.ceil(n / hopSamples);
-  const riseDb = new Float32Array(frames);
-  const energy = new Float64Array(frames);
-  const innovation = new Float64Array(frames);
+  const frames = Math.ceil(x.length / hopSamples);
+  const out: PredictionOnsetFunction = { hopSamples, riseDb: new Float32Array(frames), energy: new Float64Array(frames), innovation: new Float64Array(frames) };
+  predictionOnsetFrames(x, 0, x.length, hopSamples, fitSamples, windowSamples, 0, frames, out, 0);
+  return out;
+}
+
+/**
+ * Frames [frameFrom, frameTo) of the prediction-error onset function, written
+ * to `out` at index frame − outFrameOffset. `x` may be a slice of the low
+ * band: x[0] is low-band sample `xStart`, and `totalSamples` is the whole low
+ * band's length (the frame count and the window ends are those of the whole).
+ * The slice must hold every sample a frame reads: from frameFrom·hop − fit − 4
+ * to the end. Sums restart at frameFrom and at each multiple of
+ * ONSET_BLOCK_FRAMES, so any split on that grid gives identical figures.
+ */
+export function predictionOnsetFrames(
+  x: Float32Array,
+  xStart: number,
+  totalSamples: number,
+  hopSamples: number,
+  fitSamples: number,
+  windowSamples: number,
+  frameFrom: number,
+  frameTo: number,
+  out: PredictionOnsetFunction,
+  outFrameOffset: number,
+): void {
+  for (let f0 = frameFrom; f0 < frameTo; ) {
+    const f1 = Math.min(frameTo, (Math.floor(f0 / ONSET_BLOCK_FRAMES) + 1) * ONSET_BLOCK_FRAMES);
+    onsetBlock(x, xStart, totalSamples, hopSamples, fitSamples, windowSamples, f0, f1, out, outFrameOffset);
+    f0 = f1;
+  }
+}
+
+function onsetBlock(
+  x: Float32Array,
+  xStart: number,
+  n: number,
+  hopSamples: number,
+  fitSamples: number,
+  windowSamples: number,
+  frameFrom: number,
+  frameTo: number,
+  out: PredictionOnsetFunction,
+  outFrameOffset: number,
+): void {
+  const { riseDb, energy, innovation } = out;
+
   const p = ORDER; // the unrolled loops below assume 4
   const epsilon = 1e-8;
   // Running sums over the fitting window of products x[i−j]·x[i−k], j,k = 0..p,
@@ -50,13 +102,15 @@ export function predictionOnsetFunction(x: Float32Array, hopSamples: number, fit
   const sums = new Float64Array(dim * dim);
   // Unrolled for order 4 (the 15 distinct products of x[i..i−4]); this loop
   // runs twice per low-band sample.
+  // Indexes below are of the whole low band; x[i − xStart] holds sample i.
   const addTerm = (i: number, sign: number): void => {
     if (i - p < 0) return;
-    const x0 = x[i]!;
-    const x1 = x[i - 1]!;
-    const x2 = x[i - 2]!;
-    const x3 = x[i - 3]!;
-    const x4 = x[i - 4]!;
+    const at = i - xStart;
+    const x0 = x[at]!;
+    const x1 = x[at - 1]!;
+    const x2 = x[at - 2]!;
+    const x3 = x[at - 3]!;
+    const x4 = x[at - 4]!;
     sums[0]! += sign * x0 * x0;
     sums[1]! += sign * x0 * x1;
     sums[2]! += sign * x0 * x2;
@@ -73,12 +127,14 @@ export function predictionOnsetFunction(x: Float32Array, hopSamples: number, fit
     sums[19]! += sign * x3 * x4;
     sums[24]! += sign * x4 * x4;
   };
-  let windowEnd = 0; // sums cover i in [windowEnd − fit, windowEnd)
-  for (let f = 0; f < frames; f++) {
+  // The sums cover i in [max(first, windowEnd − fit), windowEnd), starting empty at `first`.
+  const first = Math.max(0, frameFrom * hopSamples - fitSamples);
+  let windowEnd = first;
+  for (let f = frameFrom; f < frameTo; f++) {
     const s = f * hopSamples;
     while (windowEnd < s) {
       addTerm(windowEnd, 1);
-      if (windowEnd - fitSamples >= 0) addTerm(windowEnd - fitSamples, -1);
+      if (windowEnd - fitSamples >= first) addTerm(windowEnd - fitSamples, -1);
       windowEnd++;
     }
     const count = Math.max(0, Math.min(fitSamples, s - p));
@@ -123,7 +179,7 @@ export function predictionOnsetFunction(x: Float32Array, hopSamples: number, fit
     let after = 0;
     let sig = 0;
     const end = s + windowSamples < n ? s + windowSamples : n;
-    for (let i = s < p ? p : s; i < end; i++) {
+    for (let i = (s < p ? p : s) - xStart, last = end - xStart; i < last; i++) {
       const xi = x[i]!;
       const e = xi - (a1 * x[i - 1]! + a2 * x[i - 2]! + a3 * x[i - 3]! + a4 * x[i - 4]!);
       after += e * e;
@@ -131,10 +187,10 @@ export function predictionOnsetFunction(x: Float32Array, hopSamples: number, fit
     }
     const len = Math.max(1, end - s);
     after /= len;
-    energy[f] = sig / len;
-    innovation[f] = after;
+    const o = f - outFrameOffset;
+    energy[o] = sig / len;
+    innovation[o] = after;
     const r = 10 * Math.log10((after + epsilon) / (before + epsilon));
-    riseDb[f] = r > 0 ? r : 0;
+    riseDb[o] = r > 0 ? r : 0;
   }
-  return { hopSamples, riseDb, energy, innovation };
 }

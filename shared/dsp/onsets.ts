@@ -1,6 +1,7 @@
-import { detectionOptionsSchema, type DetectionOptions, type Hit } from '../schemas/hit';
+import type { DetectionOptions, Hit } from '../schemas/hit';
+import { withDetectionDefaults } from '../schemas/hit-defaults';
 import { lowBandOf, type LowBand } from './low-band';
-import { predictionOnsetFunction } from './onset-function';
+import { predictionOnsetFunction, type PredictionOnsetFunction } from './onset-function';
 import { pickPeaks } from './peak-pick';
 import { arAicChangePoint, refineOnsetSample } from './onset-refine';
 import { energyJumpDb, newHighBandDb, sustainDb } from './hit-evidence';
@@ -103,7 +104,7 @@ export type DetectionTuning = typeof DETECTION_TUNING;
  * @returns hits sorted by time, `timeSec = sample / sampleRateHz`, all enabled
  */
 export function detectOnsets(mono: Float32Array, sampleRateHz: number, options: Partial<DetectionOptions> = {}): Hit[] {
-  const opts = detectionOptionsSchema.parse(options);
+  const opts = withDetectionDefaults(options);
   return detectOnsetsWithLowBand(mono, lowBandOf(mono, sampleRateHz, opts.lowBandHz), sampleRateHz, opts);
 }
 
@@ -129,38 +130,118 @@ export function detectOnsetsWithLowBand(
   tuning: DetectionTuning = DETECTION_TUNING,
   trace?: (candidate: CandidateTrace) => void,
 ): Hit[] {
+  const g = onsetGeometry(band.rateHz, tuning);
+  const odf = predictionOnsetFunction(band.samples, g.hopSamples, g.fitSamples, g.windowSamples);
+  return detectOnsetsFromFunction(mono, band, odf, sampleRateHz, opts, tuning, trace);
+}
+
+/** Hop, fitting window and scoring window of the onset function on a low band at `rateHz`, in low-band samples. */
+export function onsetGeometry(rateHz: number, tuning: DetectionTuning = DETECTION_TUNING): { hopSamples: number; fitSamples: number; windowSamples: number } {
+  return {
+    hopSamples: Math.max(1, Math.round(tuning.hopSec * rateHz)),
+    fitSamples: Math.round(tuning.fitSec * rateHz),
+    windowSamples: Math.round(tuning.scoreSec * rateHz),
+  };
+}
+
+/**
+ * Steps 3–6 of detectOnsets with the low band and its onset function already
+ * computed (server/audio/detection-split.ts computes them on two threads).
+ * `odf` must be predictionOnsetFunction of band.samples with onsetGeometry.
+ */
+export function detectOnsetsFromFunction(
+  mono: Float32Array,
+  band: LowBand,
+  odf: PredictionOnsetFunction,
+  sampleRateHz: number,
+  opts: DetectionOptions,
+  tuning: DetectionTuning = DETECTION_TUNING,
+  trace?: (candidate: CandidateTrace) => void,
+): Hit[] {
+  const candidates = findCandidates(band, odf, opts, tuning);
+  const kept = refineCandidates(mono, band, candidates, 0, candidates.length, 0, sampleRateHz, opts, tuning, trace);
+  return finishHits(kept, band, sampleRateHz, opts, tuning);
+}
+
+/** A coarse onset (step 3) that passed the innovation floor, ready for refinement. */
+export interface Candidate {
+  /** Onset-function frame of the peak. */
+  frame: number;
+  /** Full-rate sample of the frame's start. */
+  frameSample: number;
+  /** riseDb at the peak. */
+  rise: number;
+  /** innovation / reference, dB. */
+  innovationDb: number;
+}
+
+/** A refined kick onset before the minimum-gap merge (steps 4–5). */
+export interface RefinedOnset {
+  sample: number;
+  rise: number;
+}
+
+/**
+ * Step 3: the coarse peaks of the onset function whose new low-band energy
+ * (prediction error) clears the floor set by a typical loud hit's.
+ */
+export function findCandidates(band: LowBand, odf: PredictionOnsetFunction, opts: DetectionOptions, tuning: DetectionTuning = DETECTION_TUNING): Candidate[] {
   const t = tuning;
   const thresholds = detectionThresholds(opts.sensitivity);
-  const hop = Math.max(1, Math.round(t.hopSec * band.rateHz));
+  const hop = odf.hopSamples;
   const hopSec = hop / band.rateHz;
-  const odf = predictionOnsetFunction(band.samples, hop, Math.round(t.fitSec * band.rateHz), Math.round(t.scoreSec * band.rateHz));
   const peaks = pickPeaks(odf.riseDb, thresholds.minRiseDb, t.medianWeight, Math.round(t.medianRadiusSec / hopSec), Math.max(1, Math.round(t.peakRadiusSec / hopSec)));
   if (peaks.length === 0) return [];
 
   const spaced = mergeClose(peaks, Math.max(0, (opts.minGapMs / 1000 - t.coarseGapToleranceSec) / hopSec), (f) => odf.riseDb[f]!);
 
   const reachFrames = Math.round(t.innovationReachSec / hopSec);
-  const innovation = new Map<number, number>();
-  for (const f of spaced) {
+  const innovation = spaced.map((f) => {
     let max = 0;
     for (let g = f; g < Math.min(odf.innovation.length, f + reachFrames); g++) max = Math.max(max, odf.innovation[g]!);
-    innovation.set(f, max);
-  }
-  const sorted = [...innovation.values()].sort((a, b) => a - b);
+    return max;
+  });
+  const sorted = [...innovation].sort((a, b) => a - b);
   const reference = sorted[Math.min(sorted.length - 1, Math.floor(t.referenceQuantile * sorted.length))]!;
   const floor = reference * 10 ** (-thresholds.floorBelowLoudestDb / 10);
-
-  const kept: Array<{ sample: number; rise: number }> = [];
   const samplesPerFrame = hop * band.factor;
+  const out: Candidate[] = [];
+  spaced.forEach((frame, k) => {
+    if (innovation[k]! < floor) return;
+    out.push({ frame, frameSample: frame * samplesPerFrame, rise: odf.riseDb[frame]!, innovationDb: 10 * Math.log10(innovation[k]! / reference) });
+  });
+  return out;
+}
+
+/**
+ * Steps 4–5 for candidates [from, to): refinement to the sample where the
+ * energy begins, then the kick evidence. `previousEnd` is one past the last
+ * onset kept before `from` (0 at the start): a search never reaches back
+ * over it. Candidates far enough from the previous one do not depend on it
+ * (independentFrom), which lets two threads refine two halves.
+ */
+export function refineCandidates(
+  mono: Float32Array,
+  band: LowBand,
+  candidates: readonly Candidate[],
+  from: number,
+  to: number,
+  previousEnd: number,
+  sampleRateHz: number,
+  opts: DetectionOptions,
+  tuning: DetectionTuning = DETECTION_TUNING,
+  trace?: (candidate: CandidateTrace) => void,
+): RefinedOnset[] {
+  const t = tuning;
+  const kept: RefinedOnset[] = [];
   const minGapSamples = (opts.minGapMs / 1000 - t.gapToleranceSec) * sampleRateHz;
-  let previousEnd = 0;
-  for (const frame of spaced) {
-    const frameInnovation = innovation.get(frame)!;
-    if (frameInnovation < floor) continue;
-    const frameSample = frame * samplesPerFrame;
-    const start = Math.max(previousEnd, frameSample - Math.round(t.refineBeforeSec * sampleRateHz));
-    const end = Math.min(mono.length, frameSample + Math.round(t.refineAfterSec * sampleRateHz));
-    const fitSamples = Math.round(t.fitSec * sampleRateHz);
+  const before = Math.round(t.refineBeforeSec * sampleRateHz);
+  const after = Math.round(t.refineAfterSec * sampleRateHz);
+  const fitSamples = Math.round(t.fitSec * sampleRateHz);
+  for (let k = from; k < to; k++) {
+    const { frame, frameSample, rise, innovationDb } = candidates[k]!;
+    const start = Math.max(previousEnd, frameSample - before);
+    const end = Math.min(mono.length, frameSample + after);
     let sample = arAicChangePoint(mono, start, end, fitSamples, t.refineOrder, t.refineRidge);
     // The full-rate picker can lock onto a later broadband event (a room's
     // tail) when a low, soft kick starts under noise; the 4 kHz picker sees
@@ -177,19 +258,40 @@ export function detectOnsetsWithLowBand(
     }
     if (lowBandPeak(band, sample, t.strengthSpanSec) < 10 ** (t.minLowPeakDbfs / 20)) continue;
     const sustain = sustainDb(band, Math.floor(sample / band.factor));
-    const innovationDb = 10 * Math.log10(frameInnovation / reference);
     const newHigh = sustain >= t.minSustainDb ? -Infinity : newHighBandDb(mono, band, sample, sampleRateHz);
     const isKick =
       sustain >= t.minSustainDb ||
       (newHigh < t.tailMaxHighDb &&
         ((sustain >= t.tailMinSustainDb && innovationDb >= t.tailMinInnovationDb) || (sustain >= t.midMinSustainDb && innovationDb >= t.midMinInnovationDb)));
-    trace?.({ sample, riseDb: odf.riseDb[frame]!, innovationDb, sustainDb: sustain, newHighDb: newHigh, kept: isKick });
+    trace?.({ sample, riseDb: rise, innovationDb, sustainDb: sustain, newHighDb: newHigh, kept: isKick });
     if (!isKick) continue;
-    kept.push({ sample, rise: odf.riseDb[frame]! });
+    kept.push({ sample, rise });
     previousEnd = sample + 1;
   }
-  const hits = mergeClose(kept, minGapSamples, (h) => h.rise, (h) => h.sample);
+  return kept;
+}
 
+/**
+ * Whether candidate k's refinement cannot depend on what was kept before it:
+ * the previous candidate is so far back that an onset kept there (at most
+ * `refineAfterSec` after its frame) ends before k's search window and a
+ * minimum gap before its earliest answer. Refining from k with
+ * previousEnd = 0 then gives what the sequential pass gives.
+ */
+export function independentFrom(candidates: readonly Candidate[], k: number, sampleRateHz: number, opts: DetectionOptions, tuning: DetectionTuning = DETECTION_TUNING): boolean {
+  if (k <= 0 || k >= candidates.length) return false;
+  const t = tuning;
+  const lastEnd = candidates[k - 1]!.frameSample + Math.round(t.refineAfterSec * sampleRateHz) + 1;
+  const earliest = candidates[k]!.frameSample - Math.round(t.refineBeforeSec * sampleRateHz);
+  const minGapSamples = (opts.minGapMs / 1000 - t.gapToleranceSec) * sampleRateHz;
+  return earliest >= lastEnd + Math.max(0, minGapSamples);
+}
+
+/** Step 6 and strengths: the minimum-gap merge of refined onsets, then each hit's low-band peak over the loudest. */
+export function finishHits(kept: readonly RefinedOnset[], band: LowBand, sampleRateHz: number, opts: DetectionOptions, tuning: DetectionTuning = DETECTION_TUNING): Hit[] {
+  const t = tuning;
+  const minGapSamples = (opts.minGapMs / 1000 - t.gapToleranceSec) * sampleRateHz;
+  const hits = mergeClose(kept, minGapSamples, (h) => h.rise, (h) => h.sample);
   const peakAmplitude = hits.map(({ sample }) => lowBandPeak(band, sample, t.strengthSpanSec));
   const maxAmplitude = Math.max(...peakAmplitude, 1e-12);
   return hits.map(({ sample }, i) => ({

@@ -1,5 +1,6 @@
 import { parseMidi, type MidiData, type MidiEvent } from 'midi-file';
-import { midiKickOptionsSchema, type Hit, type MidiKickOptions } from '../schemas/hit';
+import type { Hit, MidiKickOptions } from '../schemas/hit';
+import { withMidiKickDefaults } from '../schemas/hit-defaults';
 
 /**
  * Kick hits from a Standard MIDI File (MMA RP-001, SMF 1.0; REFERENCES.md
@@ -156,7 +157,7 @@ export function tickClock(data: MidiData): (tick: number) => number {
  * midi.broken_track 400, midi.unsupported_format 415 (type 2), midi.no_kicks 422.
  */
 export function readMidiKicks(bytes: Uint8Array, options: Partial<MidiKickOptions> = {}): MidiKicks {
-  const opts = midiKickOptionsSchema.parse(options);
+  const opts = withMidiKickDefaults(options);
   const data = parse(bytes);
   if (data.header.format === 2) {
     throw new MidiFormatError('midi.unsupported_format', 415, 'MIDI type 2 (independent sequences) is not supported; export the kick as type 0 or 1.');

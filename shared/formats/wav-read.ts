@@ -35,14 +35,16 @@ export function writePlainWavHeader(layout: WavLayout, dataBytes: number, out: U
 /**
  * Splits the data chunk into blocks of whole frames of about `targetBytes`
  * each, so a block decodes on its own. Returns [offsetBytes, lengthBytes]
- * pairs relative to the file start.
+ * pairs relative to the file start; `fromFrame`/`toFrame` limit them to a range of frames.
  */
-export function wavDataBlocks(layout: WavLayout, targetBytes = 1 << 20): Array<[number, number]> {
+export function wavDataBlocks(layout: WavLayout, targetBytes = 1 << 20, fromFrame = 0, toFrame = layout.frames): Array<[number, number]> {
   const framesPerBlock = Math.max(1, Math.floor(targetBytes / layout.blockAlign));
   const blockBytes = framesPerBlock * layout.blockAlign;
   const blocks: Array<[number, number]> = [];
-  for (let done = 0; done < layout.dataBytes; done += blockBytes) {
-    blocks.push([layout.dataOffsetBytes + done, Math.min(blockBytes, layout.dataBytes - done)]);
+  const first = Math.max(0, fromFrame) * layout.blockAlign;
+  const end = Math.min(layout.frames, toFrame) * layout.blockAlign;
+  for (let done = first; done < end; done += blockBytes) {
+    blocks.push([layout.dataOffsetBytes + done, Math.min(blockBytes, end - done)]);
   }
   return blocks;
 }

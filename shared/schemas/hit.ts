@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { DETECTION_DEFAULTS, MIDI_KICK_DEFAULTS } from './hit-defaults';
 
 /**
  * One kick onset. `timeSec` is where the hit begins (the first sample of its
@@ -28,9 +29,9 @@ export type Hit = z.infer<typeof hitSchema>;
  *   (common practice, no source; REFERENCES.md "Ranges").
  */
 export const detectionOptionsSchema = z.object({
-  sensitivity: z.number().min(0).max(1).default(0.5),
-  minGapMs: z.number().min(5).max(1000).default(50),
-  lowBandHz: z.number().min(40).max(400).default(120),
+  sensitivity: z.number().min(0).max(1).default(DETECTION_DEFAULTS.sensitivity),
+  minGapMs: z.number().min(5).max(1000).default(DETECTION_DEFAULTS.minGapMs),
+  lowBandHz: z.number().min(40).max(400).default(DETECTION_DEFAULTS.lowBandHz),
 });
 export type DetectionOptions = z.infer<typeof detectionOptionsSchema>;
 
@@ -40,7 +41,7 @@ export type DetectionOptions = z.infer<typeof detectionOptionsSchema>;
  * percussion map"). `channel` is 1-based as on a keyboard; null means any.
  */
 export const midiKickOptionsSchema = z.object({
-  notes: z.array(z.number().int().min(0).max(127)).min(1).default([35, 36]),
-  channel: z.number().int().min(1).max(16).nullable().default(10),
+  notes: z.array(z.number().int().min(0).max(127)).min(1).default(() => [...MIDI_KICK_DEFAULTS.notes]),
+  channel: z.number().int().min(1).max(16).nullable().default(MIDI_KICK_DEFAULTS.channel),
 });
 export type MidiKickOptions = z.infer<typeof midiKickOptionsSchema>;

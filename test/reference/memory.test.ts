@@ -15,13 +15,13 @@ const root = fileURLToPath(new URL('../..', import.meta.url));
  * process from /proc/self/status VmHWM (the kernel's peak resident set).
  */
 describe('memory: the 5-minute stem in one process', () => {
-  it('detectKickFile peaks under 500 MB resident and still finds all 600 hits', () => {
+  for (const threads of [1, 2] as const) it(`detectKickFile on ${threads} thread(s) peaks under 500 MB resident and still finds all 600 hits`, () => {
     const stem = writeScene(LONG_STEM);
     expect(statSync(stem.path).size).toBeGreaterThan(86e6);
     const script = `
       import { readFileSync } from 'node:fs';
       import { detectKickFile } from './server/audio/kick-detection.ts';
-      const r = await detectKickFile(${JSON.stringify(stem.path)});
+      const r = await detectKickFile(${JSON.stringify(stem.path)}, { threads: ${threads} });
       const hwm = /VmHWM:\\s+(\\d+) kB/.exec(readFileSync('/proc/self/status', 'utf8'));
       console.log(JSON.stringify({ hwmMb: Number(hwm[1]) / 1024, times: r.hits.map((h) => h.timeSec) }));
     `;

@@ -1,0 +1,248 @@
+import { closeSync, openSync, readSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
+import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
+import type { WavLayout } from '../../shared/formats/wav-header';
+import { decodeMonoBlockInto, wavDataBlocks } from '../../shared/formats/wav-read';
+import { createLowBandBuilder, pushLowBand } from '../../shared/dsp/low-band';
+import { ONSET_BLOCK_FRAMES, predictionOnsetFrames, type PredictionOnsetFunction } from '../../shared/dsp/onset-function';
+import { refineCandidates, type Candidate, type RefinedOnset } from '../../shared/dsp/onsets';
+import type { LowBand } from '../../shared/dsp/low-band';
+import type { DetectionOptions } from '../../shared/schemas/hit';
+import { AudioInputError } from './audio-errors';
+
+/**
+ * Kick detection on two cores: the main thread decodes and analyses the
+ * first part of the song while a worker thread does the rest (decoding, the
+ * low band and its onset function are two thirds of the work); then each
+ * refines half of the candidates, split where the halves cannot depend on
+ * each other (shared/dsp/onsets.ts independentFrom). The worker
+ * starts its filters `WARM_UP_SEC` before its part and discards what they
+ * give there: an 8th-order Butterworth at 120 Hz forgets its start within
+ * ~0.2 s (its slowest pole decays by e every ~7 ms), so after a second the
+ * two halves join exactly as one pass would. The split falls on the onset
+ * function's block grid (ONSET_BLOCK_FRAMES), where its sums restart anyway.
+ * The equality with the single-thread path is a test
+ * (test/reference/detection-split.test.ts).
+ */
+
+/** Filter warm-up of the worker before its part of the song, seconds. */
+const WARM_UP_SEC = 1;
+/** Below this length a second thread costs more to start than it saves. */
+export const SPLIT_MIN_SEC = 40;
+const READ_BLOCK_BYTES = 1 << 20;
+const TASK = 'tuckline-detection-tail';
+
+/** What the worker computes: the song from frame `from` to the end. */
+export interface TailJob {
+  path: string;
+  layout: WavLayout;
+  /** The whole song's mono mixdown (shared); the job writes frames [from, end). */
+  mono: SharedArrayBuffer;
+  /** First frame decoded: `from` less the warm-up (a multiple of 2·factor). */
+  warmFrom: number;
+  from: number;
+  bandHz: number;
+  hopSamples: number;
+  fitSamples: number;
+  windowSamples: number;
+}
+
+export interface TailResult {
+  /** Low-band samples from index from / factor to the end of the song. */
+  band: Float32Array;
+  /** Onset-function frames from from / (factor·hop) to the end. */
+  riseDb: Float32Array;
+  energy: Float64Array;
+  innovation: Float64Array;
+}
+
+/** Where the song is split: frame S on the grid factor·hop·ONSET_BLOCK_FRAMES near the middle; null when shorter than `minSec` or too short to split. */
+export function splitPlan(layout: WavLayout, factor: number, hopSamples: number, minSec = SPLIT_MIN_SEC): { from: number; warmFrom: number } | null {
+  const frames = layout.frames;
+  if (frames < minSec * layout.sampleRateHz) return null;
+  const unit = factor * hopSamples * ONSET_BLOCK_FRAMES;
+  const from = Math.floor(frames / 2 / unit) * unit;
+  const pairUnit = 2 * factor;
+  const warmFrom = from - Math.ceil((WARM_UP_SEC * layout.sampleRateHz) / pairUnit) * pairUnit;
+  if (from <= 0 || warmFrom < 0) return null;
+  return { from, warmFrom };
+}
+
+/** Whether this module runs from TypeScript sources (tsx, the tests) rather than the built command line. */
+function fromSources(): boolean {
+  return import.meta.url.endsWith('.ts');
+}
+
+/**
+ * Whether splitting pays by default: a second core, and built code (the
+ * command line's bundle). From sources a worker spends ~0.35 s compiling
+ * TypeScript, about what the split saves on a 5-minute song, so the server
+ * (run through tsx) detects on one thread unless told otherwise.
+ */
+export function canSplit(): boolean {
+  return availableParallelism() >= 2 && !fromSources();
+}
+
+/**
+ * Decodes frames [warmFrom, end) of the file with positioned synchronous
+ * reads, builds the low band, keeps the mono mixdown of [from, end) in the
+ * shared buffer and computes the onset function of the tail. Runs in the
+ * worker, or on the main thread when a worker cannot be started.
+ */
+export function analyseTail(job: TailJob): TailResult {
+  const { layout } = job;
+  const frames = layout.frames;
+  const mono = new Float32Array(job.mono);
+  const builder = createLowBandBuilder(layout.sampleRateHz, frames - job.warmFrom, job.bandHz);
+  const bytes = new Uint8Array(READ_BLOCK_BYTES);
+  const block = new Float32Array(Math.floor(READ_BLOCK_BYTES / layout.blockAlign));
+  const fd = openSync(job.path, 'r');
+  try {
+    let first = job.warmFrom;
+    for (const [offset, length] of wavDataBlocks(layout, READ_BLOCK_BYTES, job.warmFrom, frames)) {
+      const read = readSync(fd, bytes, 0, length, offset);
+      if (read < length) throw new AudioInputError('audio.truncated', 400, `The file is truncated: it shrank while being read (${offset + read} bytes).`);
+      const n = decodeMonoBlockInto(layout, bytes.subarray(0, length), block, 0);
+      const samples = block.subarray(0, n);
+      pushLowBand(builder, samples);
+      const keepFrom = Math.max(0, job.from - first);
+      if (keepFrom < n) mono.set(samples.subarray(keepFrom), first + keepFrom);
+      first += n;
+    }
+  } finally {
+    closeSync(fd);
+  }
+  const factor = builder.factor;
+  const xStart = job.warmFrom / factor;
+  const x = builder.out.subarray(0, builder.written);
+  const totalSamples = xStart + builder.written;
+  const totalFrames = Math.ceil(totalSamples / job.hopSamples);
+  const frameFrom = job.from / (factor * job.hopSamples);
+  const count = Math.max(0, totalFrames - frameFrom);
+  const odf: PredictionOnsetFunction = {
+    hopSamples: job.hopSamples,
+    riseDb: new Float32Array(count),
+    energy: new Float64Array(count),
+    innovation: new Float64Array(count),
+  };
+  predictionOnsetFrames(x, xStart, totalSamples, job.hopSamples, job.fitSamples, job.windowSamples, frameFrom, totalFrames, odf, frameFrom);
+  return { band: x.slice((job.from - job.warmFrom) / factor), riseDb: odf.riseDb, energy: odf.energy, innovation: odf.innovation };
+}
+
+/** The second phase: refine candidates [from, end) of the song's list on the worker (previousEnd 0; see independentFrom). */
+export interface RefineRequest {
+  candidates: Candidate[];
+  from: number;
+  /** The joined low band (the worker's own starts at the warm-up). */
+  band: LowBand;
+  opts: DetectionOptions;
+}
+
+/** A worker that analyses the tail of the song, then may refine the second half of the candidates. */
+export interface TailWorker {
+  tail: Promise<TailResult>;
+  refine(request: RefineRequest): Promise<RefinedOnset[]>;
+  /** Lets the worker go (when no refinement is asked for). */
+  close(): void;
+  /** Which phases the worker did (the rest fell back to this thread); for tests and diagnostics. */
+  done: { tail: boolean; refine: boolean };
+}
+
+function refineOnThisThread(job: TailJob, request: RefineRequest): RefinedOnset[] {
+  const mono = new Float32Array(job.mono);
+  const { candidates, from, band, opts } = request;
+  return refineCandidates(mono, band, candidates, from, candidates.length, 0, job.layout.sampleRateHz, opts);
+}
+
+/**
+ * Runs analyseTail (and later one refinement) on a worker thread. The worker
+ * is this very module: it sees its task in workerData (below). From
+ * TypeScript sources (the server under tsx, the tests) the worker registers
+ * tsx first. Whatever the worker cannot do (it fails to start, or dies), the main
+ * thread does itself, so the result never depends on threads; an unusable
+ * file fails the same way on the main thread.
+ */
+export function startTailWorker(job: TailJob): TailWorker {
+  let worker: Worker | null = null;
+  try {
+    worker = fromSources()
+      ? // tsx's loader hooks do not reach a worker through execArgv; register them in it first.
+        new Worker(`import(${JSON.stringify(import.meta.resolve('tsx/esm/api'))}).then((m) => { m.register(); return import(${JSON.stringify(import.meta.url)}); })`, {
+          eval: true,
+          workerData: { task: TASK, job },
+        })
+      : new Worker(new URL(import.meta.url), { workerData: { task: TASK, job } });
+  } catch {
+    worker = null;
+  }
+  // Each phase resolves from the worker's message, or on this thread when the worker is gone.
+  let pending: { kind: 'tail' | 'refined'; settle: (message: WorkerMessage | null) => void } | null = null;
+  let dead = worker === null;
+  let early: WorkerMessage | null = null;
+  const onGone = (): void => {
+    dead = true;
+    const p = pending;
+    pending = null;
+    p?.settle(null);
+  };
+  worker?.on('message', (message: WorkerMessage) => {
+    if (pending && pending.kind === message.kind) {
+      const p = pending;
+      pending = null;
+      p.settle(message);
+    } else early = message;
+  });
+  worker?.once('error', onGone);
+  worker?.once('exit', onGone);
+  const next = (kind: 'tail' | 'refined'): Promise<WorkerMessage | null> =>
+    new Promise((resolve) => {
+      if (early && early.kind === kind) {
+        const m = early;
+        early = null;
+        return resolve(m);
+      }
+      if (dead) return resolve(null);
+      pending = { kind, settle: resolve };
+    });
+  const done = { tail: false, refine: false };
+  const tail = next('tail').then((m) => {
+    if (m && m.kind === 'tail') {
+      done.tail = true;
+      return m.result;
+    }
+    return analyseTail(job);
+  });
+  return {
+    tail,
+    done,
+    async refine(request) {
+      await tail;
+      if (!dead && worker) worker.postMessage(request);
+      const m = await next('refined');
+      void worker?.terminate();
+      if (m && m.kind === 'refined') {
+        done.refine = true;
+        return m.kept;
+      }
+      return refineOnThisThread(job, request);
+    },
+    close() {
+      void worker?.terminate();
+    },
+  };
+}
+
+type WorkerMessage = { kind: 'tail'; result: TailResult } | { kind: 'refined'; kept: RefinedOnset[] };
+
+if (!isMainThread && (workerData as { task?: string } | null)?.task === TASK && parentPort) {
+  const port = parentPort;
+  const job = (workerData as { job: TailJob }).job;
+  const result = analyseTail(job);
+  const message: WorkerMessage = { kind: 'tail', result };
+  port.postMessage(message, [result.band.buffer, result.riseDb.buffer, result.energy.buffer, result.innovation.buffer] as ArrayBuffer[]);
+  port.once('message', (request: RefineRequest) => {
+    const reply: WorkerMessage = { kind: 'refined', kept: refineOnThisThread(job, request) };
+    port.postMessage(reply);
+    port.close();
+  });
+}
