@@ -15,6 +15,20 @@ export interface StampOptions {
   rampToleranceDb?: number;
 }
 
+/** A template with its times in seconds relative to the hit (tMs / 1000, divided once). */
+interface SecondsTemplate {
+  tSec: Float64Array;
+  gainDb: Float64Array;
+  startSec: number;
+  endSec: number;
+}
+
+function inSeconds(tpl: TuckTemplate): SecondsTemplate {
+  const tSec = new Float64Array(tpl.tMs.length);
+  for (let j = 0; j < tSec.length; j++) tSec[j] = tpl.tMs[j] / 1000;
+  return { tSec, gainDb: tpl.gainDb, startSec: tpl.startMs / 1000, endSec: tpl.endMs / 1000 };
+}
+
 /**
  * Stamps the tuck shape at every enabled hit (GLOSSARY "Stamp").
  *
@@ -49,112 +63,142 @@ export function stampHits(hits: readonly Hit[], shape: TuckShape, opts: StampOpt
   }
   if (!sorted) order.sort((a, b) => hits[a].timeSec - hits[b].timeSec);
 
-  const templates = new Map<number | null, TuckTemplate>();
-  const templateFor = (depth: number | null): TuckTemplate => {
+  const templates = new Map<number | null, SecondsTemplate>();
+  const templateFor = (depth: number | null): SecondsTemplate => {
     let tpl = templates.get(depth);
     if (!tpl) {
-      tpl = buildTuckTemplate(shape, { depthDb: depth, baseGainDb: base, rampToleranceDb: opts.rampToleranceDb });
+      tpl = inSeconds(buildTuckTemplate(shape, { depthDb: depth, baseGainDb: base, rampToleranceDb: opts.rampToleranceDb }));
       templates.set(depth, tpl);
     }
     return tpl;
   };
 
   // The curve relative to the base, in seconds, built left to right.
-  const T: number[] = [];
-  const G: number[] = [];
+  const curve = new Breakpoints(order.length * 32 + 16);
+  // The hit's tuck in absolute seconds, and the merged tail, while tucks overlap.
+  let bT = new Float64Array(64);
+  let merged = new Breakpoints(128);
   let stampedHitCount = 0;
   for (const i of order) {
     const hit = hits[i];
     const tpl = templateFor(hit.depthDb ?? null);
-    const n = tpl.tMs.length;
+    const n = tpl.tSec.length;
     if (n === 0) continue;
-    const t0 = hit.timeSec + tpl.startMs / 1000;
-    const t1 = hit.timeSec + tpl.endMs / 1000;
-    if (opts.isBassSilent && opts.isBassSilent(Math.max(0, t0), Math.min(durationSec, t1))) {
+    const t0 = hit.timeSec + tpl.startSec;
+    if (opts.isBassSilent && opts.isBassSilent(Math.max(0, t0), Math.min(durationSec, hit.timeSec + tpl.endSec))) {
       gatedHitIndexes.push(i);
       continue;
     }
     stampedHitCount++;
-    const last = T.length - 1;
-    if (last < 0 || T[last] <= t0) {
+    const last = curve.n - 1;
+    if (last < 0 || curve.t[last] <= t0) {
+      curve.room(n);
+      const T = curve.t;
+      const G = curve.g;
+      let at = curve.n;
       for (let j = 0; j < n; j++) {
-        const tj = hit.timeSec + tpl.tMs[j] / 1000;
+        const tj = hit.timeSec + tpl.tSec[j];
         if (j === 0 && last >= 0 && T[last] === tj) continue;
-        T.push(tj);
-        G.push(tpl.gainDb[j]);
+        T[at] = tj;
+        G[at] = tpl.gainDb[j];
+        at++;
       }
+      curve.n = at;
       continue;
     }
     // Overlap: merge the tail of the curve from the last point at or before t0.
     let c = last;
-    while (c > 0 && T[c] > t0) c--;
-    const bT = new Array<number>(n);
-    for (let j = 0; j < n; j++) bT[j] = hit.timeSec + tpl.tMs[j] / 1000;
-    const merged = minMerge(T, G, c, bT, tpl.gainDb);
-    T.length = c;
-    G.length = c;
-    for (let k = 0; k < merged.t.length; k++) {
-      T.push(merged.t[k]);
-      G.push(merged.g[k]);
-    }
+    while (c > 0 && curve.t[c] > t0) c--;
+    if (bT.length < n) bT = new Float64Array(n * 2);
+    for (let j = 0; j < n; j++) bT[j] = hit.timeSec + tpl.tSec[j];
+    merged.n = 0;
+    minMerge(curve.t, curve.g, c, curve.n, bT, tpl.gainDb, n, merged);
+    curve.n = c;
+    curve.room(merged.n);
+    curve.t.set(merged.t.subarray(0, merged.n), c);
+    curve.g.set(merged.g.subarray(0, merged.n), c);
+    curve.n = c + merged.n;
   }
 
-  return { curve: { points: finish(T, G, base, durationSec), baseGainDb: base, floorDb: floor }, gatedHitIndexes, stampedHitCount };
+  return { curve: { points: finish(curve.t, curve.g, curve.n, base, durationSec), baseGainDb: base, floorDb: floor }, gatedHitIndexes, stampedHitCount };
 }
 
-/** Value of a piecewise-linear function (0 outside its span) at x, with a forward-moving cursor. */
-function makeCursor(t: ArrayLike<number>, g: ArrayLike<number>, from: number) {
-  let k = from;
-  const end = t.length - 1;
-  return (x: number): number => {
-    if (x < t[from] || x > t[end]) return 0;
-    while (k < end && t[k + 1] < x) k++;
-    if (x === t[k]) return g[k];
-    const span = t[k + 1] - t[k];
-    return span > 0 ? g[k] + ((g[k + 1] - g[k]) * (x - t[k])) / span : g[k + 1];
-  };
+/** Growable parallel arrays of breakpoints (seconds, dB); `n` are in use. */
+class Breakpoints {
+  t: Float64Array;
+  g: Float64Array;
+  n = 0;
+  constructor(capacity: number) {
+    this.t = new Float64Array(capacity);
+    this.g = new Float64Array(capacity);
+  }
+  /** Makes room for `extra` more points. */
+  room(extra: number) {
+    if (this.n + extra <= this.t.length) return;
+    const cap = Math.max(this.t.length * 2, this.n + extra);
+    const t = new Float64Array(cap);
+    const g = new Float64Array(cap);
+    t.set(this.t.subarray(0, this.n));
+    g.set(this.g.subarray(0, this.n));
+    this.t = t;
+    this.g = g;
+  }
+  push(t: number, g: number) {
+    if (this.n === this.t.length) this.room(1);
+    this.t[this.n] = t;
+    this.g[this.n] = g;
+    this.n++;
+  }
 }
 
 /**
- * Pointwise minimum of A = (aT, aG)[from..] and B, both piecewise linear and 0
- * outside their spans: union of breakpoints plus the crossings between them.
+ * Value at x of the piecewise-linear function (t, g)[from..end) (0 outside its
+ * span), searching forward from index k (x never decreases between calls);
+ * returns the value and leaves the index it stopped at in `cursor.k`.
  */
-function minMerge(aT: number[], aG: number[], from: number, bT: ArrayLike<number>, bG: ArrayLike<number>): { t: number[]; g: number[] } {
-  const times: number[] = [];
+function valueAt(t: Float64Array, g: Float64Array, from: number, end: number, cursor: { k: number }, x: number): number {
+  const last = end - 1;
+  if (x < t[from] || x > t[last]) return 0;
+  let k = cursor.k;
+  while (k < last && t[k + 1] < x) k++;
+  cursor.k = k;
+  if (x === t[k]) return g[k];
+  const span = t[k + 1] - t[k];
+  return span > 0 ? g[k] + ((g[k + 1] - g[k]) * (x - t[k])) / span : g[k + 1];
+}
+
+/**
+ * Pointwise minimum of A = (aT, aG)[from..aEnd) and B = (bT, bG)[0..bEnd), both
+ * piecewise linear and 0 outside their spans: union of breakpoints plus the
+ * crossings between them, appended to `out`.
+ */
+function minMerge(aT: Float64Array, aG: Float64Array, from: number, aEnd: number, bT: Float64Array, bG: Float64Array, bEnd: number, out: Breakpoints): void {
+  const ca = { k: from };
+  const cb = { k: 0 };
   let i = from;
   let j = 0;
-  while (i < aT.length || j < bT.length) {
-    const x = j >= bT.length || (i < aT.length && aT[i] <= bT[j]) ? aT[i++] : bT[j++];
-    if (times.length === 0 || x > times[times.length - 1]) times.push(x);
-  }
-  const fa = makeCursor(aT, aG, from);
-  const fb = makeCursor(bT, bG, 0);
-  const t: number[] = [];
-  const g: number[] = [];
-  let pa = fa(times[0]);
-  let pb = fb(times[0]);
-  t.push(times[0]);
-  g.push(Math.min(pa, pb));
-  for (let k = 1; k < times.length; k++) {
-    const x = times[k];
-    const va = fa(x);
-    const vb = fb(x);
-    const d0 = pa - pb;
-    const d1 = va - vb;
-    if ((d0 < 0 && d1 > 0) || (d0 > 0 && d1 < 0)) {
-      const f = d0 / (d0 - d1);
-      const xc = times[k - 1] + (x - times[k - 1]) * f;
-      if (xc > t[t.length - 1] && xc < x) {
-        t.push(xc);
-        g.push(pa + (va - pa) * f);
+  let prev = NaN;
+  let pa = 0;
+  let pb = 0;
+  while (i < aEnd || j < bEnd) {
+    const x = j >= bEnd || (i < aEnd && aT[i] <= bT[j]) ? aT[i++] : bT[j++];
+    if (out.n > 0 && !(x > prev)) continue;
+    const va = valueAt(aT, aG, from, aEnd, ca, x);
+    const vb = valueAt(bT, bG, 0, bEnd, cb, x);
+    if (out.n > 0) {
+      const d0 = pa - pb;
+      const d1 = va - vb;
+      if ((d0 < 0 && d1 > 0) || (d0 > 0 && d1 < 0)) {
+        const f = d0 / (d0 - d1);
+        const xc = prev + (x - prev) * f;
+        if (xc > out.t[out.n - 1] && xc < x) out.push(xc, pa + (va - pa) * f);
       }
     }
-    t.push(x);
-    g.push(Math.min(va, vb));
+    out.push(x, Math.min(va, vb));
+    prev = x;
     pa = va;
     pb = vb;
   }
-  return { t, g };
 }
 
 /**
@@ -162,37 +206,38 @@ function minMerge(aT: number[], aG: number[], from: number, bT: ArrayLike<number
  * adds the base gain, clips at the song's ends (interpolating the gain there)
  * and drops the middle points of flat runs.
  */
-function finish(T: number[], G: number[], base: number, durationSec: number): GainPoint[] {
+function finish(T: Float64Array, G: Float64Array, n: number, base: number, durationSec: number): GainPoint[] {
   const out: GainPoint[] = [];
-  const push = (timeSec: number, rel: number) => {
-    const gainDb = base + rel;
-    const n = out.length;
-    if (n && out[n - 1].timeSec >= timeSec) return;
-    if (n >= 2 && out[n - 1].gainDb === gainDb && out[n - 2].gainDb === gainDb) out[n - 1].timeSec = timeSec;
-    else out.push({ timeSec, gainDb });
-  };
   const at = (x: number, k: number) => {
     const span = T[k + 1] - T[k];
     return span > 0 ? G[k] + ((G[k + 1] - G[k]) * (x - T[k])) / span : G[k + 1];
   };
-  push(0, T.length && T[0] <= 0 ? (T[T.length - 1] <= 0 ? 0 : at(0, firstAfter(T, 0) - 1)) : 0);
-  for (let k = 0; k < T.length; k++) {
+  pushPoint(out, 0, base + (n && T[0] <= 0 ? (T[n - 1] <= 0 ? 0 : at(0, firstAfter(T, n, 0) - 1)) : 0));
+  for (let k = 0; k < n; k++) {
     if (T[k] <= 0) continue;
     if (T[k] >= durationSec) {
-      if (k > 0 && T[k - 1] < durationSec) push(durationSec, at(durationSec, k - 1));
+      if (k > 0 && T[k - 1] < durationSec) pushPoint(out, durationSec, base + at(durationSec, k - 1));
       break;
     }
-    push(T[k], G[k]);
+    pushPoint(out, T[k], base + G[k]);
   }
-  push(durationSec, T.length && T[T.length - 1] > durationSec ? at(durationSec, firstAfter(T, durationSec) - 1) : 0);
+  pushPoint(out, durationSec, base + (n && T[n - 1] > durationSec ? at(durationSec, firstAfter(T, n, durationSec) - 1) : 0));
   if (out.length === 1) out.push({ timeSec: durationSec, gainDb: out[0].gainDb });
   return out;
 }
 
-/** Index of the first element > x (T ascending). */
-function firstAfter(T: number[], x: number): number {
+/** Appends a breakpoint unless it is not later than the last; a flat run's last point moves instead. */
+function pushPoint(out: GainPoint[], timeSec: number, gainDb: number): void {
+  const n = out.length;
+  if (n && out[n - 1].timeSec >= timeSec) return;
+  if (n >= 2 && out[n - 1].gainDb === gainDb && out[n - 2].gainDb === gainDb) out[n - 1].timeSec = timeSec;
+  else out.push({ timeSec, gainDb });
+}
+
+/** Index of the first of T[0..n) > x (T ascending). */
+function firstAfter(T: Float64Array, n: number, x: number): number {
   let lo = 0;
-  let hi = T.length;
+  let hi = n;
   while (lo < hi) {
     const mid = (lo + hi) >> 1;
     if (T[mid] <= x) lo = mid + 1;
