@@ -22,9 +22,11 @@ export function writeBreakpointCsv(curve: GainCurve, options: CsvExportOptionsIn
   const ticksPerSec = (o.bpm * o.ppq) / 60;
   // Rows are written as ASCII into one buffer with integer arithmetic (no
   // per-row strings: a song's CSV has tens of thousands of rows).
-  const w = new AsciiWriter(64 + curve.points.length * 64);
-  w.text(CSV_COLUMNS.join(','));
-  w.crlf();
+  let buf = new Uint8Array(HEADER.length + 2 + curve.points.length * 48 + MAX_ROW_BYTES);
+  let at = 0;
+  for (let i = 0; i < HEADER.length; i++) buf[at++] = HEADER.charCodeAt(i);
+  buf[at++] = 13;
+  buf[at++] = 10;
   let lastMicros = -1;
   let lastGain = NaN;
   let milliDb = 0;
@@ -37,105 +39,129 @@ export function writeBreakpointCsv(curve: GainCurve, options: CsvExportOptionsIn
     if (p.gainDb !== lastGain) {
       lastGain = p.gainDb;
       milliDb = Math.round(p.gainDb * 1000);
-      linMicro = Math.round(Math.pow(10, p.gainDb / 20) * 1e6);
+      linMicro = roundedMicroGain(p.gainDb);
     }
-    w.fixed(micros, 6);
-    w.byte(44);
-    w.fixed(milliDb, 3);
-    w.byte(44);
-    w.int(Math.round(t * o.sampleRate));
-    w.byte(44);
+    if (at + MAX_ROW_BYTES > buf.length) {
+      const next = new Uint8Array(buf.length * 2);
+      next.set(buf.subarray(0, at));
+      buf = next;
+    }
+    at = putFixed(buf, at, micros, 6);
+    buf[at++] = 44;
+    at = putFixed(buf, at, milliDb, 3);
+    buf[at++] = 44;
+    at = putUint(buf, at, Math.round(t * o.sampleRate));
+    buf[at++] = 44;
     // bar.beat.tick, as secondsToBarBeatTick (bar-beat.ts) computes it.
     const ticks = Math.round(t * ticksPerSec);
     const bar = Math.floor(ticks / ticksPerBar);
     const inBar = ticks - bar * ticksPerBar;
     const beat = Math.floor(inBar / ticksPerBeat);
-    w.int(bar + 1);
-    w.byte(46);
-    w.int(beat + 1);
-    w.byte(46);
-    w.int(Math.round(inBar - beat * ticksPerBeat));
-    w.byte(44);
-    w.fixed(linMicro, 6);
-    w.crlf();
+    at = putUint(buf, at, bar + 1);
+    buf[at++] = 46;
+    at = putUint(buf, at, beat + 1);
+    buf[at++] = 46;
+    at = putUint(buf, at, Math.round(inBar - beat * ticksPerBeat));
+    buf[at++] = 44;
+    at = putFixed(buf, at, linMicro, 6);
+    buf[at++] = 13;
+    buf[at++] = 10;
   }
-  return w.toString();
+  return asciiToString(buf.subarray(0, at));
 }
+
+const HEADER = CSV_COLUMNS.join(',');
+
+/**
+ * Most bytes a row can take: five numbers of at most 17 digits (2^53), a sign,
+ * decimal points, separators and CRLF — with room to spare.
+ */
+const MAX_ROW_BYTES = 160;
 
 const POW10 = [1, 10, 100, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9];
 
-/** A growable ASCII byte buffer with integer and fixed-point number writers. */
-class AsciiWriter {
-  private buf: Uint8Array;
-  private at = 0;
-  private readonly digits = new Uint8Array(24);
-  constructor(capacity: number) {
-    this.buf = new Uint8Array(capacity);
+/** ln10/20: 10^(G/20) = e^(G·ln10/20). */
+const NEPER_PER_DB = Math.LN10 / 20;
+
+/**
+ * round(10^(G/20)·10^6), as `Math.round(Math.pow(10, G / 20) * 1e6)` gives it:
+ * through `Math.exp` (a quarter of `Math.pow`'s time here), which differs by a
+ * few ulps, so a value within 10^−12 (relative) of a rounding tie is redone
+ * with `Math.pow`.
+ */
+function roundedMicroGain(gainDb: number): number {
+  const y = Math.exp(gainDb * NEPER_PER_DB) * 1e6;
+  const tie = y - Math.floor(y) - 0.5;
+  if ((tie < 0 ? -tie : tie) <= y * 1e-12) return Math.round(Math.pow(10, gainDb / 20) * 1e6);
+  return Math.round(y);
+}
+
+/** ASCII digit pairs "00" … "99": the tens digit of n at 2n, the units at 2n + 1. */
+const DIGIT_PAIRS = new Uint8Array(200);
+for (let n = 0; n < 100; n++) {
+  DIGIT_PAIRS[2 * n] = 48 + Math.floor(n / 10);
+  DIGIT_PAIRS[2 * n + 1] = 48 + (n % 10);
+}
+
+/** Writes a non-negative integer in decimal at `at`; returns the index after it. */
+function putUint(buf: Uint8Array, at: number, v: number): number {
+  let digits = 1;
+  for (let p = 10; p <= v; p *= 10) digits++;
+  let i = at + digits;
+  let x = v;
+  while (x > 0x7fffffff) {
+    const q = Math.floor(x / 10);
+    buf[--i] = 48 + x - q * 10;
+    x = q;
   }
-  private room(n: number) {
-    if (this.at + n <= this.buf.length) return;
-    const next = new Uint8Array(Math.max(this.buf.length * 2, this.at + n));
-    next.set(this.buf.subarray(0, this.at));
-    this.buf = next;
+  let s = x | 0;
+  while (s >= 100) {
+    const q = (s / 100) | 0;
+    const r = 2 * (s - q * 100);
+    buf[--i] = DIGIT_PAIRS[r + 1];
+    buf[--i] = DIGIT_PAIRS[r];
+    s = q;
   }
-  byte(b: number) {
-    this.room(1);
-    this.buf[this.at++] = b;
+  if (s >= 10) {
+    buf[--i] = DIGIT_PAIRS[2 * s + 1];
+    buf[--i] = DIGIT_PAIRS[2 * s];
+  } else buf[--i] = 48 + s;
+  return at + digits;
+}
+
+/**
+ * Writes an integer count of 10^−decimals (decimals ≤ 9) as a fixed-point
+ * decimal at `at`, zero without a sign; returns the index after it.
+ */
+function putFixed(buf: Uint8Array, at: number, scaled: number, decimals: number): number {
+  if (scaled < 0) {
+    buf[at++] = 45;
+    scaled = -scaled;
   }
-  crlf() {
-    this.room(2);
-    this.buf[this.at++] = 13;
-    this.buf[this.at++] = 10;
+  const unit = POW10[decimals];
+  const whole = Math.floor(scaled / unit);
+  let frac = (scaled - whole * unit) | 0;
+  at = putUint(buf, at, whole);
+  buf[at++] = 46;
+  let i = at + decimals;
+  for (let d = decimals; d >= 2; d -= 2) {
+    const q = (frac / 100) | 0;
+    const r = 2 * (frac - q * 100);
+    buf[--i] = DIGIT_PAIRS[r + 1];
+    buf[--i] = DIGIT_PAIRS[r];
+    frac = q;
   }
-  text(s: string) {
-    this.room(s.length);
-    for (let i = 0; i < s.length; i++) this.buf[this.at++] = s.charCodeAt(i) & 0x7f;
-  }
-  /** A non-negative integer in decimal. */
-  int(v: number) {
-    let n = 0;
-    if (v < 0x7fffffff) {
-      let i = v | 0;
-      do {
-        const q = (i / 10) | 0;
-        this.digits[n++] = 48 + i - q * 10;
-        i = q;
-      } while (i > 0);
-    } else {
-      do {
-        this.digits[n++] = 48 + (v % 10);
-        v = Math.floor(v / 10);
-      } while (v > 0);
-    }
-    this.room(n);
-    while (n > 0) this.buf[this.at++] = this.digits[--n];
-  }
-  /** An integer count of 10^−decimals (decimals ≤ 9) as a fixed-point decimal; zero has no sign. */
-  fixed(scaled: number, decimals: number) {
-    if (scaled < 0) {
-      this.byte(45);
-      scaled = -scaled;
-    }
-    const unit = POW10[decimals];
-    const whole = Math.floor(scaled / unit);
-    let frac = (scaled - whole * unit) | 0;
-    this.int(whole);
-    this.room(decimals + 1);
-    this.buf[this.at++] = 46;
-    for (let i = decimals - 1; i >= 0; i--) {
-      const q = (frac / 10) | 0;
-      this.buf[this.at + i] = 48 + frac - q * 10;
-      frac = q;
-    }
-    this.at += decimals;
-  }
-  toString(): string {
-    // TextDecoder is a Web-platform global (WHATWG Encoding; browsers and Node alike), not in ES2022's lib.
-    const Decoder = (globalThis as { TextDecoder?: new () => { decode(bytes: Uint8Array): string } }).TextDecoder;
-    if (Decoder) return new Decoder().decode(this.buf.subarray(0, this.at));
-    const parts: string[] = [];
-    // fromCharCode takes the typed array as its argument list (array-like), 8 KiB at a time.
-    for (let i = 0; i < this.at; i += 8192) parts.push(String.fromCharCode.apply(null, this.buf.subarray(i, Math.min(this.at, i + 8192)) as unknown as number[]));
-    return parts.join('');
-  }
+  if (i > at) buf[--i] = 48 + frac;
+  return at + decimals;
+}
+
+/** ASCII bytes → string. */
+function asciiToString(bytes: Uint8Array): string {
+  // TextDecoder is a Web-platform global (WHATWG Encoding; browsers and Node alike), not in ES2022's lib.
+  const Decoder = (globalThis as { TextDecoder?: new () => { decode(bytes: Uint8Array): string } }).TextDecoder;
+  if (Decoder) return new Decoder().decode(bytes);
+  const parts: string[] = [];
+  // fromCharCode takes the typed array as its argument list (array-like), 8 KiB at a time.
+  for (let i = 0; i < bytes.length; i += 8192) parts.push(String.fromCharCode.apply(null, bytes.subarray(i, Math.min(bytes.length, i + 8192)) as unknown as number[]));
+  return parts.join('');
 }
