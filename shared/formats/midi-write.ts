@@ -125,55 +125,6 @@ function encodeTrack(events: TrackEvent[]): Uint8Array {
   return out.subarray(0, at);
 }
 
-/**
- * A track whose channel messages arrive already in time order (a lane's
- * controller stream): written straight into bytes, delta ticks as VLQ,
- * without an event list to sort. Starts with `head` (meta events at tick 0).
- */
-class OrderedTrackWriter {
-  private buf = new Uint8Array(1 << 16);
-  private at = 8;
-  private now = 0;
-  constructor(head: TrackEvent[]) {
-    for (const e of head) this.event(e);
-  }
-  private room(n: number) {
-    if (this.at + n <= this.buf.length) return;
-    const next = new Uint8Array(Math.max(this.buf.length * 2, this.at + n));
-    next.set(this.buf.subarray(0, this.at));
-    this.buf = next;
-  }
-  event(e: TrackEvent) {
-    if (e.bytes) {
-      this.room(4 + e.n);
-      this.at = writeVlq(this.buf, this.at, e.tick - this.now);
-      this.buf.set(e.bytes, this.at);
-      this.at += e.n;
-      this.now = e.tick;
-    } else this.channel(e.tick, e.b0, e.b1, e.b2);
-  }
-  /** A three-byte channel message, e.g. Bn cc vv (control change, n = channel − 1). */
-  channel(tick: number, b0: number, b1: number, b2: number) {
-    if (tick < this.now) throw new RangeError('OrderedTrackWriter: events out of order');
-    this.room(7);
-    this.at = writeVlq(this.buf, this.at, tick - this.now);
-    this.buf[this.at++] = b0;
-    this.buf[this.at++] = b1;
-    this.buf[this.at++] = b2;
-    this.now = tick;
-  }
-  /** Ends the track with FF 2F 00 and returns the MTrk chunk. */
-  finish(): Uint8Array {
-    this.room(4);
-    this.buf[this.at++] = 0x00;
-    this.buf[this.at++] = 0xff;
-    this.buf[this.at++] = 0x2f;
-    this.buf[this.at++] = 0x00;
-    this.buf.set([0x4d, 0x54, 0x72, 0x6b, ...u32(this.at - 8)], 0);
-    return this.buf.subarray(0, this.at);
-  }
-}
-
 function u32(v: number): number[] {
   return [(v >>> 24) & 0xff, (v >>> 16) & 0xff, (v >>> 8) & 0xff, v & 0xff];
 }
@@ -194,6 +145,22 @@ export interface MidiMarker {
 const MARKER_KEY = 36;
 const MARKER_CHANNEL = 10;
 
+/** A lane's controller stream: `n` changes, ticks ascending, values 0 … full scale. */
+export interface CcChanges {
+  ticks: Float64Array;
+  values: Uint16Array;
+  n: number;
+}
+
+function growCcChanges(s: CcChanges): void {
+  const ticks = new Float64Array(s.ticks.length * 2);
+  const values = new Uint16Array(s.values.length * 2);
+  ticks.set(s.ticks);
+  values.set(s.values);
+  s.ticks = ticks;
+  s.values = values;
+}
+
 /**
  * The controller stream of a curve on the tick grid: the value at tick 0,
  * then the curve's value at every tick (time = tick·60/(bpm·ppq)) where it
@@ -201,58 +168,148 @@ const MARKER_CHANNEL = 10;
  * values). Values v = round(fullScale·10^(G/40)), 0 at or below the floor
  * (`gainDbToCc7` with fullScale 127, `gainDbToCc14` with 16383). Inside a
  * segment (straight in dB) 10^(G/40) is geometric in the tick, so it is
- * advanced by one multiplication per tick and re-anchored at every breakpoint.
- * `visit` gets each (tick, value) in ascending tick order.
+ * advanced by one multiplication per tick and re-anchored at every breakpoint;
+ * a segment with one tick on it costs one `Math.pow` (its gain is clamped to
+ * the segment in dB, which is where the running product clamps it).
+ * The value a tick ends with counts (a breakpoint on a tick: the later segment's).
  */
-export function forEachCcChange(curve: GainCurve, bpm: number, ppq: number, fullScale: number, visit: (tick: number, value: number) => void): void {
+export function ccChanges(curve: GainCurve, bpm: number, ppq: number, fullScale: number): CcChanges {
   const p = curve.points;
-  if (p.length === 0) return;
+  const out: CcChanges = { ticks: new Float64Array(p.length * 4 + 16), values: new Uint16Array(p.length * 4 + 16), n: 0 };
+  if (p.length === 0) return out;
   const floorDb = curve.floorDb ?? -Infinity;
-  const toValue = (gainDb: number) => (gainDb <= floorDb ? 0 : Math.max(0, Math.min(fullScale, Math.round(fullScale * Math.pow(10, gainDb / 40)))));
   const xFloor = Math.pow(10, floorDb / 40);
   const ticksPerSec = (bpm * ppq) / 60;
   let written = -1;
   let pendingTick = 0;
-  let pendingValue = toValue(p[0].gainDb);
-  // The value a tick ends with counts; it is written when it differs from the last one written.
-  const at = (tick: number, value: number) => {
-    if (tick !== pendingTick) {
-      if (pendingValue !== written) {
-        visit(pendingTick, pendingValue);
-        written = pendingValue;
-      }
-      pendingTick = tick;
-    }
-    pendingValue = value;
-  };
+  let pendingValue = ccValue(p[0].gainDb, floorDb, fullScale);
   for (let i = 0; i + 1 < p.length; i++) {
     const a = p[i];
     const b = p[i + 1];
     const kStart = Math.max(1, Math.ceil(a.timeSec * ticksPerSec - 1e-9));
     const kEnd = Math.floor(b.timeSec * ticksPerSec + 1e-9);
     if (kStart > kEnd) continue;
-    if (a.gainDb === b.gainDb) {
-      at(kStart, toValue(a.gainDb));
+    const flat = a.gainDb === b.gainDb;
+    const dbPerTick = flat ? 0 : (b.gainDb - a.gainDb) / ((b.timeSec - a.timeSec) * ticksPerSec);
+    const gStart = a.gainDb + dbPerTick * (kStart - a.timeSec * ticksPerSec);
+    const gLo = a.gainDb < b.gainDb ? a.gainDb : b.gainDb;
+    const gHi = a.gainDb < b.gainDb ? b.gainDb : a.gainDb;
+    if (flat || kStart === kEnd) {
+      let value: number;
+      if (flat) value = ccValue(a.gainDb, floorDb, fullScale);
+      else {
+        const x = Math.pow(10, (gStart < gLo ? gLo : gStart > gHi ? gHi : gStart) / 40);
+        value = x <= xFloor ? 0 : Math.min(fullScale, Math.round(fullScale * x));
+      }
+      if (kStart !== pendingTick) {
+        if (pendingValue !== written) {
+          if (out.n === out.ticks.length) growCcChanges(out);
+          out.ticks[out.n] = pendingTick;
+          out.values[out.n++] = pendingValue;
+          written = pendingValue;
+        }
+        pendingTick = kStart;
+      }
+      pendingValue = value;
       continue;
     }
-    const dbPerTick = (b.gainDb - a.gainDb) / ((b.timeSec - a.timeSec) * ticksPerSec);
     const ratio = Math.pow(10, dbPerTick / 40);
-    let x = Math.pow(10, (a.gainDb + dbPerTick * (kStart - a.timeSec * ticksPerSec)) / 40);
-    const xLo = Math.pow(10, Math.min(a.gainDb, b.gainDb) / 40);
-    const xHi = Math.pow(10, Math.max(a.gainDb, b.gainDb) / 40);
+    let x = Math.pow(10, gStart / 40);
+    const xLo = Math.pow(10, gLo / 40);
+    const xHi = Math.pow(10, gHi / 40);
     for (let k = kStart; k <= kEnd; k++, x *= ratio) {
       const xc = x < xLo ? xLo : x > xHi ? xHi : x;
-      at(k, xc <= xFloor ? 0 : Math.min(fullScale, Math.round(fullScale * xc)));
+      const value = xc <= xFloor ? 0 : Math.min(fullScale, Math.round(fullScale * xc));
+      if (k !== pendingTick) {
+        if (pendingValue !== written) {
+          if (out.n === out.ticks.length) growCcChanges(out);
+          out.ticks[out.n] = pendingTick;
+          out.values[out.n++] = pendingValue;
+          written = pendingValue;
+        }
+        pendingTick = k;
+      }
+      pendingValue = value;
     }
   }
-  if (pendingValue !== written) visit(pendingTick, pendingValue);
+  if (pendingValue !== written) {
+    if (out.n === out.ticks.length) growCcChanges(out);
+    out.ticks[out.n] = pendingTick;
+    out.values[out.n++] = pendingValue;
+  }
+  return out;
 }
 
-/** `forEachCcChange` as an array. */
+/** round(fullScale·10^(G/40)) within 0 … fullScale, 0 at or below the floor. */
+function ccValue(gainDb: number, floorDb: number, fullScale: number): number {
+  return gainDb <= floorDb ? 0 : Math.max(0, Math.min(fullScale, Math.round(fullScale * Math.pow(10, gainDb / 40))));
+}
+
+/** `ccChanges`, each (tick, value) handed to `visit` in ascending tick order. */
+export function forEachCcChange(curve: GainCurve, bpm: number, ppq: number, fullScale: number, visit: (tick: number, value: number) => void): void {
+  const s = ccChanges(curve, bpm, ppq, fullScale);
+  for (let i = 0; i < s.n; i++) visit(s.ticks[i], s.values[i]);
+}
+
+/** `ccChanges` as an array. */
 export function ccStream(curve: GainCurve, bpm: number, ppq: number, fullScale = 127): { tick: number; value: number }[] {
+  const s = ccChanges(curve, bpm, ppq, fullScale);
   const out: { tick: number; value: number }[] = [];
-  forEachCcChange(curve, bpm, ppq, fullScale, (tick, value) => out.push({ tick, value }));
+  for (let i = 0; i < s.n; i++) out.push({ tick: s.ticks[i], value: s.values[i] });
   return out;
+}
+
+/**
+ * A lane's track: its name (FF 03) at tick 0, then the controller stream as
+ * control changes (Bn cc vv, full status on every event), delta ticks as VLQ,
+ * ending with FF 2F 00; returns the MTrk chunk. The stream is already in tick
+ * order, so it is encoded straight into one buffer of its largest size
+ * (VLQ ≤ 4 bytes + 3 per event, two events per change at 14 bits).
+ * 14-bit: MSB on CC n when it changes, then the LSB on CC n+32.
+ */
+function encodeCcTrack(name: string, stream: CcChanges, status: number, cc: number, fourteenBit: boolean): Uint8Array {
+  const head = trackName(name).bytes!;
+  const out = new Uint8Array(8 + 1 + head.length + stream.n * (fourteenBit ? 14 : 7) + 4);
+  let at = 8;
+  out[at++] = 0x00;
+  out.set(head, at);
+  at += head.length;
+  const { ticks, values } = stream;
+  let now = 0;
+  let lastMsb = -1;
+  for (let i = 0; i < stream.n; i++) {
+    const tick = ticks[i];
+    let delta = tick - now;
+    if (delta < 0) throw new RangeError('encodeCcTrack: events out of order');
+    now = tick;
+    const value = values[i];
+    if (fourteenBit) {
+      const msb = value >> 7;
+      if (msb !== lastMsb) {
+        at = delta < 0x80 ? ((out[at] = delta), at + 1) : writeVlq(out, at, delta);
+        out[at++] = status;
+        out[at++] = cc;
+        out[at++] = msb;
+        lastMsb = msb;
+        delta = 0;
+      }
+      at = delta < 0x80 ? ((out[at] = delta), at + 1) : writeVlq(out, at, delta);
+      out[at++] = status;
+      out[at++] = cc + 32;
+      out[at++] = value & 0x7f;
+    } else {
+      at = delta < 0x80 ? ((out[at] = delta), at + 1) : writeVlq(out, at, delta);
+      out[at++] = status;
+      out[at++] = cc;
+      out[at++] = value;
+    }
+  }
+  out[at++] = 0x00;
+  out[at++] = 0xff;
+  out[at++] = 0x2f;
+  out[at++] = 0x00;
+  out.set([0x4d, 0x54, 0x72, 0x6b, ...u32(at - 8)], 0);
+  return out.subarray(0, at);
 }
 
 /**
@@ -268,23 +325,8 @@ export function writeMidiCc(lanes: readonly MidiLane[], options: MidiExportOptio
   const o = midiExportOptionsSchema.parse(options);
   const tracks: Uint8Array[] = [];
   tracks.push(encodeTrack([trackName(title), tempo(o.bpm), timeSignature(o.timeSignature[0], o.timeSignature[1])]));
-  for (const lane of lanes) {
-    // The controller stream comes in tick order: it is written as it comes.
-    const w = new OrderedTrackWriter([trackName(lane.name)]);
-    const status = 0xb0 | (o.channel - 1);
-    if (o.fourteenBit) {
-      let lastMsb = -1;
-      forEachCcChange(lane.curve, o.bpm, o.ppq, 16383, (tick, value) => {
-        const msb = value >> 7;
-        if (msb !== lastMsb) w.channel(tick, status, o.cc, msb);
-        w.channel(tick, status, o.cc + 32, value & 0x7f);
-        lastMsb = msb;
-      });
-    } else {
-      forEachCcChange(lane.curve, o.bpm, o.ppq, 127, (tick, value) => w.channel(tick, status, o.cc, value));
-    }
-    tracks.push(w.finish());
-  }
+  const status = 0xb0 | (o.channel - 1);
+  for (const lane of lanes) tracks.push(encodeCcTrack(lane.name, ccChanges(lane.curve, o.bpm, o.ppq, o.fourteenBit ? 16383 : 127), status, o.cc, o.fourteenBit));
   if (o.markerTrack) {
     const events: TrackEvent[] = [trackName('Kick hits')];
     const len = Math.max(1, Math.round(o.ppq / 8));
