@@ -10,6 +10,23 @@ import { biquadLowpass, cascadeState, processCascadeInPlace } from './biquad';
  */
 
 /**
+ * Scratch arrays reused from call to call: a song's refinement runs these
+ * pickers a few thousand times, and fresh arrays each time kept the young
+ * generation collecting every millisecond. Each function below uses its own
+ * and keeps no reference past its return (JavaScript runs one call at a time
+ * per thread; a worker has its own module instance).
+ */
+const pool = { sum: new Float64Array(0), sumSq: new Float64Array(0), err: new Float32Array(0), seg: new Float32Array(0), dec: new Float32Array(0) };
+function f64(name: 'sum' | 'sumSq', n: number): Float64Array {
+  if (pool[name].length < n) pool[name] = new Float64Array(Math.max(n, 2 * pool[name].length));
+  return pool[name];
+}
+function f32(name: 'err' | 'seg' | 'dec', n: number): Float32Array {
+  if (pool[name].length < n) pool[name] = new Float32Array(Math.max(n, 2 * pool[name].length));
+  return pool[name].subarray(0, n);
+}
+
+/**
  * Index in [startSample, endSample) where x's variance changes most, by
  * the AIC picker above. Variances use cumulative sums in float64; a floor of
  * 1e-20 keeps ln finite in digital silence.
@@ -23,8 +40,10 @@ export function aicChangePoint(x: Float32Array, startSample: number, endSample: 
   const b = Math.min(x.length, endSample);
   const n = b - a;
   if (n < 4) return a;
-  const sum = new Float64Array(n + 1);
-  const sumSq = new Float64Array(n + 1);
+  const sum = f64('sum', n + 1);
+  const sumSq = f64('sumSq', n + 1);
+  sum[0] = 0;
+  sumSq[0] = 0;
   for (let i = 0; i < n; i++) {
     const v = x[a + i]!;
     sum[i + 1] = sum[i]! + v;
@@ -115,7 +134,7 @@ export function arAicChangePoint(x: Float32Array, startSample: number, endSample
   const coef = new Float64Array(p);
   choleskySolve(m, r, coef, p);
   const n = b - a;
-  const err = new Float32Array(n);
+  const err = f32('err', n);
   if (freeRun) {
     // Extrapolate what was sounding (the predictor run on its own output) and
     // subtract it: what is left before the hit is noise, after it the new hit.
@@ -189,14 +208,15 @@ export function refineOnsetSample(x: Float32Array, sampleRateHz: number, startSa
   const fit = Math.round(fitSec * sampleRateHz);
   const segStart = Math.max(0, startSample - fit - pad);
   const segEnd = Math.min(x.length, endSample + pad);
-  const seg = x.slice(segStart, segEnd);
+  const seg = f32('seg', segEnd - segStart);
+  seg.set(x.subarray(segStart, segEnd));
   const lp = [biquadLowpass(REFINE_LOWPASS_HZ, sampleRateHz, Math.SQRT1_2)];
   processCascadeInPlace(lp, cascadeState(lp), seg);
   seg.reverse();
   processCascadeInPlace(lp, cascadeState(lp), seg);
   seg.reverse();
   const offset = (startSample - segStart) % factor;
-  const dec = new Float32Array(Math.floor((seg.length - offset) / factor));
+  const dec = f32('dec', Math.floor((seg.length - offset) / factor));
   for (let i = 0; i < dec.length; i++) dec[i] = seg[offset + i * factor]!;
   const a = Math.floor((startSample - segStart - offset) / factor);
   const b = Math.floor((endSample - segStart - offset) / factor);
