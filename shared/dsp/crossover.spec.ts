@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { createBandSplitter } from './crossover';
+import { createBandSplitter, linkwitzRiley4LowBands } from './crossover';
 
 function rms(x: Float32Array, from = 0) {
   let s = 0;
@@ -53,5 +53,31 @@ describe('Linkwitz–Riley 4th-order crossover', () => {
       s.split(x.subarray(at, end), lo.subarray(at, end), hi.subarray(at, end));
     }
     for (let i = 0; i < x.length; i += 97) expect(lo[i]).toBeCloseTo(loWhole[i], 6);
+  });
+});
+
+describe('linkwitzRiley4LowBands (known by construction: the splitter\'s low band, computed alone)', () => {
+  const fs = 48_000;
+  let seed = 3;
+  const rand = () => ((seed = (seed * 1664525 + 1013904223) >>> 0) / 4294967296) * 2 - 1;
+  const lowOf = (x: Float32Array) => {
+    const lo = new Float32Array(x.length);
+    createBandSplitter(150, fs).split(x, lo, new Float32Array(x.length));
+    return lo;
+  };
+
+  it('equals createBandSplitter\'s low output sample for sample, for one, two and three signals of unequal lengths', () => {
+    const inputs = [4000, 2500, 3001].map((n) => Float32Array.from({ length: n }, () => rand()));
+    for (const count of [1, 2, 3]) {
+      const lows = linkwitzRiley4LowBands(inputs.slice(0, count), 150, fs);
+      lows.forEach((lo, s) => expect(Array.from(lo)).toEqual(Array.from(lowOf(inputs[s]))));
+    }
+  });
+
+  it('filters in place when an input is its own output', () => {
+    const x = Float32Array.from({ length: 3000 }, () => rand());
+    const expected = lowOf(x);
+    linkwitzRiley4LowBands([x], 150, fs, [x]);
+    expect(Array.from(x)).toEqual(Array.from(expected));
   });
 });

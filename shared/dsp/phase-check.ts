@@ -1,4 +1,4 @@
-import { createBandSplitter } from './crossover';
+import { linkwitzRiley4LowBands } from './crossover';
 
 export interface HitPhase {
   timeSec: number;
@@ -29,13 +29,6 @@ export interface PhaseCheckOptions {
   offsetStepMs?: number;
 }
 
-function lowBand(mono: Float32Array, crossoverHz: number, sampleRateHz: number): Float32Array {
-  const low = new Float32Array(mono.length);
-  const high = new Float32Array(mono.length);
-  createBandSplitter(crossoverHz, sampleRateHz).split(mono, low, high);
-  return low;
-}
-
 /**
  * The phase check (GLOSSARY "Phase check"): per hit, in the low band below the
  * crossover (LR4), the correlation of kick and bass and how the sum's peak
@@ -45,11 +38,20 @@ function lowBand(mono: Float32Array, crossoverHz: number, sampleRateHz: number):
  *
  * @param kickMono kick, mono, −1..1
  * @param bassMono bass, mono, same rate
+ * @param lowBands where the two low bands are written, as long as each input
+ *   (an input itself may serve: it is then filtered in place)
  */
-export function phaseCheck(kickMono: Float32Array, bassMono: Float32Array, sampleRateHz: number, hitTimesSec: readonly number[], options: PhaseCheckOptions = {}): { hits: HitPhase[]; suggestion: PhaseSuggestion } {
+export function phaseCheck(
+  kickMono: Float32Array,
+  bassMono: Float32Array,
+  sampleRateHz: number,
+  hitTimesSec: readonly number[],
+  options: PhaseCheckOptions = {},
+  lowBands: [kick: Float32Array, bass: Float32Array] = [new Float32Array(kickMono.length), new Float32Array(bassMono.length)],
+): { hits: HitPhase[]; suggestion: PhaseSuggestion } {
   const o = { crossoverHz: 150, windowBeforeMs: 0, windowAfterMs: 60, flagDb: 3, maxOffsetMs: 5, offsetStepMs: 0.5, ...options };
-  const k = lowBand(kickMono, o.crossoverHz, sampleRateHz);
-  const b = lowBand(bassMono, o.crossoverHz, sampleRateHz);
+  // Only the low band is compared, so the high band is never computed.
+  const [k, b] = linkwitzRiley4LowBands([kickMono, bassMono], o.crossoverHz, sampleRateHz, lowBands);
   const before = Math.round((o.windowBeforeMs / 1000) * sampleRateHz);
   const after = Math.round((o.windowAfterMs / 1000) * sampleRateHz);
   const n = Math.min(k.length, b.length);
@@ -77,17 +79,20 @@ export function phaseCheck(kickMono: Float32Array, bassMono: Float32Array, sampl
     return { timeSec: hitTimesSec[i], correlation: r, sumVsLouderDb, flag };
   });
 
-  // Mean correlation with the bass moved by `shift` samples. Only the cross term and the
-  // bass energy change with the shift; flipping the polarity just negates r, so one pass serves both signs.
-  const kickEnergy = starts.map((s) => {
+  // Mean correlation with the bass moved by each offset (samples; the first is "now").
+  // Only the cross term and the bass energy change with the shift; flipping the polarity
+  // just negates r, so one pass serves both signs. Hit by hit, so each window is read
+  // while it is still in cache rather than once per offset across the whole song.
+  const offsetsMs: number[] = [];
+  for (let ms = -o.maxOffsetMs; ms <= o.maxOffsetMs + 1e-9; ms += o.offsetStepMs) offsetsMs.push(ms);
+  const shifts = [0, ...offsetsMs.map((ms) => Math.round((ms / 1000) * sampleRateHz))];
+  const sumR = new Float64Array(shifts.length);
+  const countR = new Float64Array(shifts.length);
+  for (const s of starts) {
     let kk = 0;
     for (let i = Math.max(0, s - before); i < Math.min(n, s + after); i++) kk += k[i] * k[i];
-    return kk;
-  });
-  const meanR = (shift: number) => {
-    let sum = 0;
-    let count = 0;
-    starts.forEach((s, h) => {
+    for (let q = 0; q < shifts.length; q++) {
+      const shift = shifts[q];
       let bb = 0;
       let kb = 0;
       const lo = Math.max(0, s - before, shift);
@@ -97,21 +102,21 @@ export function phaseCheck(kickMono: Float32Array, bassMono: Float32Array, sampl
         bb += bv * bv;
         kb += k[i] * bv;
       }
-      const r = kb / Math.sqrt(kickEnergy[h] * bb);
+      const r = kb / Math.sqrt(kk * bb);
       if (Number.isFinite(r)) {
-        sum += r;
-        count++;
+        sumR[q] += r;
+        countR[q]++;
       }
-    });
-    return count ? sum / count : NaN;
-  };
+    }
+  }
+  const meanR = (q: number) => (countR[q] ? sumR[q] / countR[q] : NaN);
   const now = meanR(0);
   let best = { invertBass: false, offsetMs: 0, r: now };
-  for (let ms = -o.maxOffsetMs; ms <= o.maxOffsetMs + 1e-9; ms += o.offsetStepMs) {
-    const r = meanR(Math.round((ms / 1000) * sampleRateHz));
+  offsetsMs.forEach((ms, q) => {
+    const r = meanR(q + 1);
     for (const [invertBass, value] of [[false, r], [true, -r]] as const) {
       if (value > best.r + 1e-6) best = { invertBass, offsetMs: Math.round(ms * 10) / 10, r: value };
     }
-  }
+  });
   return { hits, suggestion: { invertBass: best.invertBass, offsetMs: best.offsetMs, meanCorrelationNow: now, meanCorrelationSuggested: best.r } };
 }
