@@ -3,7 +3,7 @@ import { availableParallelism } from 'node:os';
 import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
 import type { WavLayout } from '../../shared/formats/wav-header';
 import { decodeMonoBlockInto, wavDataBlocks } from '../../shared/formats/wav-read';
-import { createLowBandBuilder, pushLowBand } from '../../shared/dsp/low-band';
+import { createLowBandBuilder, pushLowBand, type LowBandBuilder } from '../../shared/dsp/low-band';
 import { ONSET_BLOCK_FRAMES, predictionOnsetFrames, type PredictionOnsetFunction } from '../../shared/dsp/onset-function';
 import { refineCandidates, type Candidate, type RefinedOnset } from '../../shared/dsp/onsets';
 import type { LowBand } from '../../shared/dsp/low-band';
@@ -84,6 +84,40 @@ export function canSplit(): boolean {
 }
 
 /**
+ * Decodes frames [from, to) of a WAV file with positioned synchronous reads
+ * (no thread-pool round trip per block) into a low-band builder, and the
+ * mono mixdown of the frames from `keepFrom` on into `mono`. Throws
+ * AudioInputError when the file shrank meanwhile.
+ */
+export function decodeRangeSync(path: string, layout: WavLayout, from: number, to: number, keepFrom: number, mono: Float32Array, builder: LowBandBuilder): void {
+  const bytes = new Uint8Array(READ_BLOCK_BYTES);
+  const block = new Float32Array(Math.floor(READ_BLOCK_BYTES / layout.blockAlign));
+  const fd = openSync(path, 'r');
+  try {
+    let first = from;
+    for (const [offset, length] of wavDataBlocks(layout, READ_BLOCK_BYTES, from, to)) {
+      const read = readSync(fd, bytes, 0, length, offset);
+      if (read < length) throw new AudioInputError('audio.truncated', 400, `The file is truncated: it shrank while being read (${offset + read} bytes).`);
+      if (first >= keepFrom) {
+        // Straight into the mono buffer, then the low band reads it there.
+        const n = decodeMonoBlockInto(layout, bytes.subarray(0, length), mono, first);
+        pushLowBand(builder, mono.subarray(first, first + n));
+        first += n;
+        continue;
+      }
+      const n = decodeMonoBlockInto(layout, bytes.subarray(0, length), block, 0);
+      const samples = block.subarray(0, n);
+      pushLowBand(builder, samples);
+      const keep = keepFrom - first;
+      if (keep < n) mono.set(samples.subarray(keep), first + keep);
+      first += n;
+    }
+  } finally {
+    closeSync(fd);
+  }
+}
+
+/**
  * Decodes frames [warmFrom, end) of the file with positioned synchronous
  * reads, builds the low band, keeps the mono mixdown of [from, end) in the
  * shared buffer and computes the onset function of the tail. Runs in the
@@ -92,26 +126,8 @@ export function canSplit(): boolean {
 export function analyseTail(job: TailJob): TailResult {
   const { layout } = job;
   const frames = layout.frames;
-  const mono = new Float32Array(job.mono);
   const builder = createLowBandBuilder(layout.sampleRateHz, frames - job.warmFrom, job.bandHz);
-  const bytes = new Uint8Array(READ_BLOCK_BYTES);
-  const block = new Float32Array(Math.floor(READ_BLOCK_BYTES / layout.blockAlign));
-  const fd = openSync(job.path, 'r');
-  try {
-    let first = job.warmFrom;
-    for (const [offset, length] of wavDataBlocks(layout, READ_BLOCK_BYTES, job.warmFrom, frames)) {
-      const read = readSync(fd, bytes, 0, length, offset);
-      if (read < length) throw new AudioInputError('audio.truncated', 400, `The file is truncated: it shrank while being read (${offset + read} bytes).`);
-      const n = decodeMonoBlockInto(layout, bytes.subarray(0, length), block, 0);
-      const samples = block.subarray(0, n);
-      pushLowBand(builder, samples);
-      const keepFrom = Math.max(0, job.from - first);
-      if (keepFrom < n) mono.set(samples.subarray(keepFrom), first + keepFrom);
-      first += n;
-    }
-  } finally {
-    closeSync(fd);
-  }
+  decodeRangeSync(job.path, layout, job.warmFrom, frames, job.from, new Float32Array(job.mono), builder);
   const factor = builder.factor;
   const xStart = job.warmFrom / factor;
   const x = builder.out.subarray(0, builder.written);

@@ -5,7 +5,7 @@ import { detectOnsetsWithLowBand } from '../../shared/dsp/onsets';
 import { createLowBandBuilder, finishLowBand, lowBandLength, pushLowBand, type LowBandBuilder } from '../../shared/dsp/low-band';
 import { findCandidates, finishHits, independentFrom, onsetGeometry, refineCandidates, type Candidate } from '../../shared/dsp/onsets';
 import { ONSET_BLOCK_FRAMES, predictionOnsetFrames, type PredictionOnsetFunction } from '../../shared/dsp/onset-function';
-import { canSplit, splitPlan, startTailWorker } from './detection-split';
+import { canSplit, decodeRangeSync, splitPlan, startTailWorker } from './detection-split';
 import { MidiFormatError, readMidiKicks } from '../../shared/formats/midi-read';
 import { sniffNonWav } from '../../shared/formats/wav-header';
 import { AudioInputError } from './audio-errors';
@@ -105,7 +105,8 @@ async function detectOnTwoThreads(
   const helper = startTailWorker({ path, layout: wav.layout, mono: shared, ...plan, bandHz: detection.lowBandHz, ...geometry });
   helper.tail.catch(() => undefined); // awaited below; a failure meanwhile must not go unhandled
   try {
-    await decodeMonoInto(wav, mono, 'direct', (first, n) => pushLowBand(band, mono.subarray(first, first + n)), plan.from);
+    // Synchronous reads: this thread has nothing else to do meanwhile, and each async read costs a thread-pool round trip.
+    decodeRangeSync(path, wav.layout, 0, plan.from, 0, mono, band);
     const total = lowBandLength(band, frames);
     const hop = geometry.hopSamples;
     const totalFrames = Math.ceil(total / hop);
