@@ -5,7 +5,7 @@ import type { WavLayout } from '../../shared/formats/wav-header';
 import { decodeMonoBlockInto, wavDataBlocks } from '../../shared/formats/wav-read';
 import { createLowBandBuilder, pushLowBand, type LowBandBuilder } from '../../shared/dsp/low-band';
 import { ONSET_BLOCK_FRAMES, predictionOnsetFrames, type PredictionOnsetFunction } from '../../shared/dsp/onset-function';
-import { refineCandidates, type Candidate, type RefinedOnset } from '../../shared/dsp/onsets';
+import { refineCandidates, refinementReach, type Candidate, type RefinedOnset } from '../../shared/dsp/onsets';
 import type { LowBand } from '../../shared/dsp/low-band';
 import type { DetectionOptions } from '../../shared/schemas/hit';
 import { AudioInputError } from './audio-errors';
@@ -15,12 +15,18 @@ import { AudioInputError } from './audio-errors';
  * first part of the song while a worker thread does the rest (decoding, the
  * low band and its onset function are two thirds of the work); then each
  * refines half of the candidates, split where the halves cannot depend on
- * each other (shared/dsp/onsets.ts independentFrom). The worker
- * starts its filters `WARM_UP_SEC` before its part and discards what they
- * give there: an 8th-order Butterworth at 120 Hz forgets its start within
- * ~0.2 s (its slowest pole decays by e every ~7 ms), so after a second the
- * two halves join exactly as one pass would. The split falls on the onset
+ * each other (shared/dsp/onsets.ts independentFrom).
+ *
+ * The worker starts its filters `WARM_UP_SEC` before its part and discards
+ * what they give there: an 8th-order Butterworth at 120 Hz forgets its start
+ * within ~0.2 s (its slowest pole decays by e every ~7 ms), so after a second
+ * the two halves join exactly as one pass would. The split falls on the onset
  * function's block grid (ONSET_BLOCK_FRAMES), where its sums restart anyway.
+ *
+ * Neither thread keeps the full-rate mono mixdown while decoding (writing
+ * 58 MB of fresh memory was a tenth of the time): refinement reads only a
+ * window around each candidate, so each thread decodes those windows again
+ * into its own, mostly untouched, full-length array (fillWindows).
  * The equality with the single-thread path is a test
  * (test/reference/detection-split.test.ts).
  */
@@ -29,6 +35,11 @@ import { AudioInputError } from './audio-errors';
 const WARM_UP_SEC = 1;
 /** Below this length a second thread costs more to start than it saves. */
 export const SPLIT_MIN_SEC = 40;
+/**
+ * Share of the song the main thread takes: a little over half, since the
+ * worker starts ~50 ms later and warms its filters up first.
+ */
+const MAIN_SHARE = 0.54;
 const READ_BLOCK_BYTES = 1 << 20;
 const TASK = 'tuckline-detection-tail';
 
@@ -36,8 +47,6 @@ const TASK = 'tuckline-detection-tail';
 export interface TailJob {
   path: string;
   layout: WavLayout;
-  /** The whole song's mono mixdown (shared); the job writes frames [from, end). */
-  mono: SharedArrayBuffer;
   /** First frame decoded: `from` less the warm-up (a multiple of 2·factor). */
   warmFrom: number;
   from: number;
@@ -56,15 +65,15 @@ export interface TailResult {
   innovation: Float64Array;
 }
 
-/** Where the song is split: frame S on the grid factor·hop·ONSET_BLOCK_FRAMES near the middle; null when shorter than `minSec` or too short to split. */
+/** Where the song is split: frame S on the grid factor·hop·ONSET_BLOCK_FRAMES a little past the middle; null when shorter than `minSec` or too short to split. */
 export function splitPlan(layout: WavLayout, factor: number, hopSamples: number, minSec = SPLIT_MIN_SEC): { from: number; warmFrom: number } | null {
   const frames = layout.frames;
   if (frames < minSec * layout.sampleRateHz) return null;
   const unit = factor * hopSamples * ONSET_BLOCK_FRAMES;
-  const from = Math.floor(frames / 2 / unit) * unit;
+  const from = Math.min(Math.round((frames * MAIN_SHARE) / unit), Math.floor(frames / unit)) * unit;
   const pairUnit = 2 * factor;
   const warmFrom = from - Math.ceil((WARM_UP_SEC * layout.sampleRateHz) / pairUnit) * pairUnit;
-  if (from <= 0 || warmFrom < 0) return null;
+  if (from <= 0 || from >= frames || warmFrom < 0) return null;
   return { from, warmFrom };
 }
 
@@ -85,49 +94,74 @@ export function canSplit(): boolean {
 
 /**
  * Decodes frames [from, to) of a WAV file with positioned synchronous reads
- * (no thread-pool round trip per block) into a low-band builder, and the
- * mono mixdown of the frames from `keepFrom` on into `mono`. Throws
- * AudioInputError when the file shrank meanwhile.
+ * (no thread-pool round trip per block) into a low-band builder, through one
+ * reused block buffer. Throws AudioInputError when the file shrank meanwhile.
  */
-export function decodeRangeSync(path: string, layout: WavLayout, from: number, to: number, keepFrom: number, mono: Float32Array, builder: LowBandBuilder): void {
+export function decodeRangeSync(path: string, layout: WavLayout, from: number, to: number, builder: LowBandBuilder): void {
   const bytes = new Uint8Array(READ_BLOCK_BYTES);
   const block = new Float32Array(Math.floor(READ_BLOCK_BYTES / layout.blockAlign));
   const fd = openSync(path, 'r');
   try {
-    let first = from;
     for (const [offset, length] of wavDataBlocks(layout, READ_BLOCK_BYTES, from, to)) {
-      const read = readSync(fd, bytes, 0, length, offset);
-      if (read < length) throw new AudioInputError('audio.truncated', 400, `The file is truncated: it shrank while being read (${offset + read} bytes).`);
-      if (first >= keepFrom) {
-        // Straight into the mono buffer, then the low band reads it there.
-        const n = decodeMonoBlockInto(layout, bytes.subarray(0, length), mono, first);
-        pushLowBand(builder, mono.subarray(first, first + n));
-        first += n;
-        continue;
-      }
+      readExactly(fd, bytes, length, offset);
       const n = decodeMonoBlockInto(layout, bytes.subarray(0, length), block, 0);
-      const samples = block.subarray(0, n);
-      pushLowBand(builder, samples);
-      const keep = keepFrom - first;
-      if (keep < n) mono.set(samples.subarray(keep), first + keep);
-      first += n;
+      pushLowBand(builder, block.subarray(0, n));
     }
   } finally {
     closeSync(fd);
   }
 }
 
+function readExactly(fd: number, bytes: Uint8Array, length: number, offset: number): void {
+  const read = readSync(fd, bytes, 0, length, offset);
+  if (read < length) throw new AudioInputError('audio.truncated', 400, `The file is truncated: it shrank while being read (${offset + read} bytes).`);
+}
+
 /**
- * Decodes frames [warmFrom, end) of the file with positioned synchronous
- * reads, builds the low band, keeps the mono mixdown of [from, end) in the
- * shared buffer and computes the onset function of the tail. Runs in the
- * worker, or on the main thread when a worker cannot be started.
+ * Decodes the mono mixdown around candidates [from, to) into `mono` (a
+ * full-length array, left zero elsewhere): from refinementReach's `before`
+ * to its `after` around each candidate's frame, overlapping windows read once.
+ */
+export function fillWindows(path: string, layout: WavLayout, mono: Float32Array, candidates: readonly Candidate[], from: number, to: number): void {
+  const reach = refinementReach(layout.sampleRateHz);
+  const fd = openSync(path, 'r');
+  let bytes = new Uint8Array(0);
+  const decode = (a: number, b: number): void => {
+    const length = (b - a) * layout.blockAlign;
+    if (bytes.length < length) bytes = new Uint8Array(Math.max(length, 2 * bytes.length));
+    readExactly(fd, bytes, length, layout.dataOffsetBytes + a * layout.blockAlign);
+    decodeMonoBlockInto(layout, bytes.subarray(0, length), mono, a);
+  };
+  try {
+    let a = -1;
+    let b = -1;
+    for (let k = from; k < to; k++) {
+      const s = candidates[k]!.frameSample;
+      const lo = Math.max(0, s - reach.before);
+      const hi = Math.min(layout.frames, s + reach.after);
+      if (lo <= b) b = Math.max(b, hi);
+      else {
+        if (b > a) decode(a, b);
+        a = lo;
+        b = hi;
+      }
+    }
+    if (b > a) decode(a, b);
+  } finally {
+    closeSync(fd);
+  }
+}
+
+/**
+ * Decodes frames [warmFrom, end) of the file, builds the low band and
+ * computes the onset function of the tail. Runs in the worker, or on the
+ * main thread when a worker cannot be started.
  */
 export function analyseTail(job: TailJob): TailResult {
   const { layout } = job;
   const frames = layout.frames;
   const builder = createLowBandBuilder(layout.sampleRateHz, frames - job.warmFrom, job.bandHz);
-  decodeRangeSync(job.path, layout, job.warmFrom, frames, job.from, new Float32Array(job.mono), builder);
+  decodeRangeSync(job.path, layout, job.warmFrom, frames, builder);
   const factor = builder.factor;
   const xStart = job.warmFrom / factor;
   const x = builder.out.subarray(0, builder.written);
@@ -164,9 +198,11 @@ export interface TailWorker {
   done: { tail: boolean; refine: boolean };
 }
 
-function refineOnThisThread(job: TailJob, request: RefineRequest): RefinedOnset[] {
-  const mono = new Float32Array(job.mono);
+/** Refines candidates [from, end) with previousEnd 0 (see independentFrom), the mono windows decoded first. */
+export function refineTail(job: TailJob, request: RefineRequest): RefinedOnset[] {
   const { candidates, from, band, opts } = request;
+  const mono = new Float32Array(job.layout.frames);
+  fillWindows(job.path, job.layout, mono, candidates, from, candidates.length);
   return refineCandidates(mono, band, candidates, from, candidates.length, 0, job.layout.sampleRateHz, opts);
 }
 
@@ -240,7 +276,7 @@ export function startTailWorker(job: TailJob): TailWorker {
         done.refine = true;
         return m.kept;
       }
-      return refineOnThisThread(job, request);
+      return refineTail(job, request);
     },
     close() {
       void worker?.terminate();
@@ -257,7 +293,7 @@ if (!isMainThread && (workerData as { task?: string } | null)?.task === TASK && 
   const message: WorkerMessage = { kind: 'tail', result };
   port.postMessage(message, [result.band.buffer, result.riseDb.buffer, result.energy.buffer, result.innovation.buffer] as ArrayBuffer[]);
   port.once('message', (request: RefineRequest) => {
-    const reply: WorkerMessage = { kind: 'refined', kept: refineOnThisThread(job, request) };
+    const reply: WorkerMessage = { kind: 'refined', kept: refineTail(job, request) };
     port.postMessage(reply);
     port.close();
   });

@@ -5,7 +5,7 @@ import { detectOnsetsWithLowBand } from '../../shared/dsp/onsets';
 import { createLowBandBuilder, finishLowBand, lowBandLength, pushLowBand, type LowBandBuilder } from '../../shared/dsp/low-band';
 import { findCandidates, finishHits, independentFrom, onsetGeometry, refineCandidates, type Candidate } from '../../shared/dsp/onsets';
 import { ONSET_BLOCK_FRAMES, predictionOnsetFrames, type PredictionOnsetFunction } from '../../shared/dsp/onset-function';
-import { canSplit, decodeRangeSync, splitPlan, startTailWorker } from './detection-split';
+import { canSplit, decodeRangeSync, fillWindows, splitPlan, startTailWorker } from './detection-split';
 import { MidiFormatError, readMidiKicks } from '../../shared/formats/midi-read';
 import { sniffNonWav } from '../../shared/formats/wav-header';
 import { AudioInputError } from './audio-errors';
@@ -100,13 +100,10 @@ async function detectOnTwoThreads(
   detection: DetectionOptions,
 ): Promise<Hit[]> {
   const { frames, sampleRate } = wav.info;
-  const shared = new SharedArrayBuffer(frames * Float32Array.BYTES_PER_ELEMENT);
-  const mono = new Float32Array(shared);
-  const helper = startTailWorker({ path, layout: wav.layout, mono: shared, ...plan, bandHz: detection.lowBandHz, ...geometry });
+  const helper = startTailWorker({ path, layout: wav.layout, ...plan, bandHz: detection.lowBandHz, ...geometry });
   helper.tail.catch(() => undefined); // awaited below; a failure meanwhile must not go unhandled
   try {
-    // Synchronous reads: this thread has nothing else to do meanwhile, and each async read costs a thread-pool round trip.
-    decodeRangeSync(path, wav.layout, 0, plan.from, 0, mono, band);
+    decodeRangeSync(path, wav.layout, 0, plan.from, band);
     const total = lowBandLength(band, frames);
     const hop = geometry.hopSamples;
     const totalFrames = Math.ceil(total / hop);
@@ -125,13 +122,13 @@ async function detectOnTwoThreads(
     odf.innovation.set(rest.innovation, headFrames);
     const lowBand = finishLowBand(band);
     const candidates = findCandidates(lowBand, odf, detection);
-    const cut = refineSplit(candidates, sampleRate, detection);
-    if (cut === null) {
-      helper.close();
-      return finishHits(refineCandidates(mono, lowBand, candidates, 0, candidates.length, 0, sampleRate, detection), lowBand, sampleRate, detection);
-    }
-    const second = helper.refine({ candidates, from: cut, band: lowBand, opts: detection });
+    const cut = refineSplit(candidates, sampleRate, detection) ?? candidates.length;
+    const second = cut < candidates.length ? helper.refine({ candidates, from: cut, band: lowBand, opts: detection }) : Promise.resolve([]);
+    if (cut === candidates.length) helper.close();
     second.catch(() => undefined);
+    // Refinement reads the signal only near the candidates: decode just that, into an otherwise untouched array.
+    const mono = new Float32Array(frames);
+    fillWindows(path, wav.layout, mono, candidates, 0, cut);
     const first = refineCandidates(mono, lowBand, candidates, 0, cut, 0, sampleRate, detection);
     return finishHits([...first, ...(await second)], lowBand, sampleRate, detection);
   } finally {

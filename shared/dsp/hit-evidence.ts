@@ -17,6 +17,9 @@ function meanSquare(x: Float32Array, from: number, to: number): number {
 
 const TINY = 1e-12;
 
+/** Window of newHighBandDb on each side of the onset, seconds. */
+export const NEW_HIGH_WINDOW_SEC = 0.03;
+
 /**
  * Sustain: low-band energy 15–55 ms after the onset over the 10 ms before it,
  * dB. A kick's body lasts; a snare's leak into the low band is gone within
@@ -41,7 +44,7 @@ export function sustainDb(band: LowBand, atLowSample: number): number {
  * @param atSample onset, full-rate sample index
  */
 export function newHighBandDb(mono: Float32Array, band: LowBand, atSample: number, sampleRateHz: number): number {
-  const w = Math.round(0.03 * sampleRateHz);
+  const w = Math.round(NEW_HIGH_WINDOW_SEC * sampleRateHz);
   const low = (a: number, b: number): number => meanSquare(band.samples, Math.floor(a / band.factor), Math.floor(b / band.factor));
   const lowAfter = low(atSample, atSample + w);
   const highAfter = Math.max(0, meanSquare(mono, atSample, atSample + w) - lowAfter);

@@ -191,6 +191,8 @@ const REFINE_RATE_HZ = 4000;
 const REFINE_LOWPASS_HZ = 500;
 const REFINE_ORDER = 4;
 const REFINE_RIDGE = 1e-4;
+/** Extra signal read on each side of the window by refineOnsetSample (room for the zero-phase filter), seconds. */
+export const REFINE_PAD_SEC = 0.005;
 
 /**
  * Onset of a hit in [startSample, endSample) of a full-rate signal, at the
@@ -204,7 +206,7 @@ const REFINE_RIDGE = 1e-4;
  */
 export function refineOnsetSample(x: Float32Array, sampleRateHz: number, startSample: number, endSample: number, fitSec: number): number {
   const factor = Math.max(1, Math.floor(sampleRateHz / REFINE_RATE_HZ));
-  const pad = Math.round(0.005 * sampleRateHz);
+  const pad = Math.round(REFINE_PAD_SEC * sampleRateHz);
   const fit = Math.round(fitSec * sampleRateHz);
   const segStart = Math.max(0, startSample - fit - pad);
   const segEnd = Math.min(x.length, endSample + pad);

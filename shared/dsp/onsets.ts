@@ -3,8 +3,8 @@ import { withDetectionDefaults } from '../schemas/hit-defaults';
 import { lowBandOf, type LowBand } from './low-band';
 import { predictionOnsetFunction, type PredictionOnsetFunction } from './onset-function';
 import { pickPeaks } from './peak-pick';
-import { arAicChangePoint, refineOnsetSample } from './onset-refine';
-import { energyJumpDb, newHighBandDb, sustainDb } from './hit-evidence';
+import { arAicChangePoint, REFINE_PAD_SEC, refineOnsetSample } from './onset-refine';
+import { energyJumpDb, NEW_HIGH_WINDOW_SEC, newHighBandDb, sustainDb } from './hit-evidence';
 
 /** Knobs the sensitivity sets, derived in one place so the docs can quote them. */
 export interface DetectionThresholds {
@@ -269,6 +269,24 @@ export function refineCandidates(
     previousEnd = sample + 1;
   }
   return kept;
+}
+
+/**
+ * How far refineCandidates reads the full-rate signal around a candidate's
+ * frame, in samples: the search window (refineBefore…refineAfter), before it
+ * the predictor's fit (fitSec and its order) or the 4 kHz picker's fit and
+ * pad, and around any answer the energy jump and the new-high-band windows.
+ * Rounded up by 10 ms. A caller may decode only these windows
+ * (server/audio/detection-split.ts fillWindows).
+ */
+export function refinementReach(sampleRateHz: number, tuning: DetectionTuning = DETECTION_TUNING): { before: number; after: number } {
+  const t = tuning;
+  const around = Math.max(t.jumpSec, NEW_HIGH_WINDOW_SEC, REFINE_PAD_SEC);
+  const margin = 0.01;
+  return {
+    before: Math.ceil((t.refineBeforeSec + Math.max(t.fitSec + REFINE_PAD_SEC, around) + margin) * sampleRateHz),
+    after: Math.ceil((t.refineAfterSec + around + margin) * sampleRateHz),
+  };
 }
 
 /**

@@ -1,9 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { detectKickFile } from '../../server/audio/kick-detection';
-import { analyseTail, splitPlan, startTailWorker } from '../../server/audio/detection-split';
-import { openWav } from '../../server/audio/wav-file';
-import { createLowBandBuilder } from '../../shared/dsp/low-band';
-import { onsetGeometry } from '../../shared/dsp/onsets';
+import { analyseTail, fillWindows, splitPlan, startTailWorker } from '../../server/audio/detection-split';
+import { openWav, readWavMono } from '../../server/audio/wav-file';
+import { createLowBandBuilder, lowBandOf } from '../../shared/dsp/low-band';
+import { predictionOnsetFunction } from '../../shared/dsp/onset-function';
+import { findCandidates, onsetGeometry, refineCandidates } from '../../shared/dsp/onsets';
+import { withDetectionDefaults } from '../../shared/schemas/hit-defaults';
 import { ONSET_CASES } from './fixtures/onset-cases';
 import { LONG_STEM } from './fixtures/long-stem';
 import { writeScene } from './fixtures/kick-scene';
@@ -34,6 +36,26 @@ describe('kick detection on two threads', () => {
     expect(split).toBeGreaterThanOrEqual(3);
   });
 
+  for (const scene of ONSET_CASES) {
+    it(`${scene.name}: refinement on the decoded windows alone equals refinement on the whole signal`, async () => {
+      const { path } = writeScene(scene);
+      const { info, mono } = await readWavMono(path);
+      const opts = withDetectionDefaults();
+      const band = lowBandOf(mono, info.sampleRate, opts.lowBandHz);
+      const g = onsetGeometry(band.rateHz);
+      const candidates = findCandidates(band, predictionOnsetFunction(band.samples, g.hopSamples, g.fitSamples, g.windowSamples), opts);
+      expect(candidates.length).toBeGreaterThan(0);
+      const wav = await openWav(path);
+      const sparse = new Float32Array(info.frames);
+      fillWindows(path, wav.layout, sparse, candidates, 0, candidates.length);
+      await wav.close();
+      const full = refineCandidates(mono, band, candidates, 0, candidates.length, 0, info.sampleRate, opts);
+      expect(refineCandidates(sparse, band, candidates, 0, candidates.length, 0, info.sampleRate, opts)).toEqual(full);
+      // Not vacuous: the windows leave most of the song undecoded.
+      expect(sparse.filter((v) => v === 0).length).toBeGreaterThan(info.frames * 0.2);
+    });
+  }
+
   it('the worker itself does both phases (no silent fallback to one thread)', async () => {
     const { path } = writeScene(LONG_STEM);
     const wav = await openWav(path);
@@ -41,12 +63,12 @@ describe('kick detection on two threads', () => {
       const builder = createLowBandBuilder(wav.info.sampleRate, wav.info.frames, 120);
       const geometry = onsetGeometry(builder.rateHz);
       const plan = splitPlan(wav.layout, builder.factor, geometry.hopSamples)!;
-      const job = { path, layout: wav.layout, mono: new SharedArrayBuffer(wav.info.frames * 4), ...plan, bandHz: 120, ...geometry };
+      const job = { path, layout: wav.layout, ...plan, bandHz: 120, ...geometry };
       const helper = startTailWorker(job);
       const fromWorker = await helper.tail;
       expect(helper.done.tail).toBe(true);
       // The same job on this thread gives the same arrays.
-      const here = analyseTail({ ...job, mono: new SharedArrayBuffer(wav.info.frames * 4) });
+      const here = analyseTail(job);
       expect(fromWorker.band).toEqual(here.band);
       expect(fromWorker.riseDb).toEqual(here.riseDb);
       expect(fromWorker.innovation).toEqual(here.innovation);
