@@ -100,32 +100,9 @@ function onsetBlock(
   // for i in [s − fit, s): entry (j,k) at j·(p+1)+k.
   const dim = p + 1;
   const sums = new Float64Array(dim * dim);
-  // Unrolled for order 4 (the 15 distinct products of x[i..i−4]); this loop
-  // runs twice per low-band sample.
   // Indexes below are of the whole low band; x[i − xStart] holds sample i.
   const addTerm = (i: number, sign: number): void => {
-    if (i - p < 0) return;
-    const at = i - xStart;
-    const x0 = x[at]!;
-    const x1 = x[at - 1]!;
-    const x2 = x[at - 2]!;
-    const x3 = x[at - 3]!;
-    const x4 = x[at - 4]!;
-    sums[0]! += sign * x0 * x0;
-    sums[1]! += sign * x0 * x1;
-    sums[2]! += sign * x0 * x2;
-    sums[3]! += sign * x0 * x3;
-    sums[4]! += sign * x0 * x4;
-    sums[6]! += sign * x1 * x1;
-    sums[7]! += sign * x1 * x2;
-    sums[8]! += sign * x1 * x3;
-    sums[9]! += sign * x1 * x4;
-    sums[12]! += sign * x2 * x2;
-    sums[13]! += sign * x2 * x3;
-    sums[14]! += sign * x2 * x4;
-    sums[18]! += sign * x3 * x3;
-    sums[19]! += sign * x3 * x4;
-    sums[24]! += sign * x4 * x4;
+    if (i - p >= 0) addProducts(x, i - xStart, sums, sign);
   };
   // The sums cover i in [max(first, windowEnd − fit), windowEnd), starting empty at `first`.
   const first = Math.max(0, frameFrom * hopSamples - fitSamples);
@@ -193,4 +170,32 @@ function onsetBlock(
     const r = 10 * Math.log10((after + epsilon) / (before + epsilon));
     riseDb[o] = r > 0 ? r : 0;
   }
+}
+
+/**
+ * sums += sign · the 15 distinct products of x[at], x[at−1] … x[at−4]
+ * (entry (j,k) at j·5 + k), unrolled for order 4; runs twice per low-band
+ * sample. A module-level function, so it optimises once for every block.
+ */
+function addProducts(x: Float32Array, at: number, sums: Float64Array, sign: number): void {
+  const x0 = x[at]!;
+  const x1 = x[at - 1]!;
+  const x2 = x[at - 2]!;
+  const x3 = x[at - 3]!;
+  const x4 = x[at - 4]!;
+  sums[0]! += sign * x0 * x0;
+  sums[1]! += sign * x0 * x1;
+  sums[2]! += sign * x0 * x2;
+  sums[3]! += sign * x0 * x3;
+  sums[4]! += sign * x0 * x4;
+  sums[6]! += sign * x1 * x1;
+  sums[7]! += sign * x1 * x2;
+  sums[8]! += sign * x1 * x3;
+  sums[9]! += sign * x1 * x4;
+  sums[12]! += sign * x2 * x2;
+  sums[13]! += sign * x2 * x3;
+  sums[14]! += sign * x2 * x4;
+  sums[18]! += sign * x3 * x3;
+  sums[19]! += sign * x3 * x4;
+  sums[24]! += sign * x4 * x4;
 }
