@@ -1,6 +1,7 @@
-// Launcher of the command line: rebuilds dist/cli/tuckline.mjs quietly when it
-// is missing or older than any source it bundles, then runs it. Plain node on
-// the bundle starts in about 0.05 s; the staleness check is a few stat calls.
+// Launcher of the command line: rebuilds dist/cli/ (tuckline.mjs and its
+// chunks) quietly when it is missing or older than any source it bundles,
+// then runs it. Plain node on the bundle starts in about 0.05 s; the
+// staleness check is a few stat calls.
 import { readdirSync, statSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
@@ -32,7 +33,7 @@ try {
 } catch {
   stale = true;
 }
-if (stale) {
+async function build() {
   try {
     const { buildCli } = await import('./build-cli.mjs');
     await buildCli({ quiet: true });
@@ -41,5 +42,14 @@ if (stale) {
     process.exit(1);
   }
 }
-const { main } = await import(pathToFileURL(bundle).href);
-process.exitCode = await main(process.argv.slice(2));
+if (stale) await build();
+let cli;
+try {
+  cli = await import(pathToFileURL(bundle).href);
+} catch (e) {
+  // A chunk of the bundle went missing (dist/ half cleaned): build again once.
+  if (e?.code !== 'ERR_MODULE_NOT_FOUND') throw e;
+  await build();
+  cli = await import(`${pathToFileURL(bundle).href}?rebuilt`);
+}
+process.exitCode = await cli.main(process.argv.slice(2));
