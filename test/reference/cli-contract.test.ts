@@ -100,6 +100,14 @@ describe('tuckline CLI', () => {
     });
   });
 
+  it('detect --threads 1 and --threads 2 print the same hits (a 4 s file is too short to split: one thread either way)', async () => {
+    const [one, two] = await Promise.all([run('detect', f('kick.wav'), '--threads', '1'), run('detect', f('kick.wav'), '--threads', '2')]);
+    expect(one.code).toBe(0);
+    expect(two.code).toBe(0);
+    expect(JSON.parse(two.stdout)).toEqual(JSON.parse(one.stdout));
+    expect(JSON.parse(one.stdout).hits).toHaveLength(HITS.length);
+  });
+
   it('detect <kick.mid> gives source midi and sampleRate null', async () => {
     const r = await run('detect', f('kick.mid'));
     expect(r.code).toBe(0);
@@ -142,6 +150,7 @@ describe('tuckline CLI', () => {
       run('stamp', f('kick.wav'), '--shape', f('shape.json'), '--format', 'wav', '--out', f('x.wav')),
       run('stamp', f('kick.wav'), '--shape', f('shape.json'), '--format', 'midi', '--cc', '300', '--out', f('x.mid')),
       run('stamp', f('kick.wav'), '--frobnicate', '--format', 'csv'),
+      run('detect', f('kick.wav'), '--threads', '3'),
     ]);
     for (const r of cases) {
       expect(r.code).toBe(2);
