@@ -1,4 +1,3 @@
-import { computeHeadroomReport } from '../../shared/dsp/headroom-report';
 import type { HeadroomReportDto } from '../../shared/schemas/report';
 import { readWavFile } from '../audio/wav-file';
 import type { HitsService } from '../hits/hits.service';
@@ -6,10 +5,13 @@ import { unprocessable } from '../http/errors';
 import type { LanesService } from '../lanes/lanes.service';
 import { createLanesRepository } from '../lanes/lanes.repository';
 import type { FileStore } from '../storage/file-store';
+import { createReportComputer } from './report-compute';
 
 export function createReportService(deps: { hits: HitsService; lanes: LanesService; lanesRepo: ReturnType<typeof createLanesRepository>; store: FileStore }) {
   const { hits, lanes, lanesRepo, store } = deps;
   const cache = new Map<string, HeadroomReportDto>();
+  // The measuring worker starts now, so the first report does not wait for it.
+  const computer = createReportComputer();
 
   return {
     /** The headroom report of a song: every figure before and after the tucks (cached until an input changes). */
@@ -37,7 +39,7 @@ export function createReportService(deps: { hits: HitsService; lanes: LanesServi
         }
         laneInputs.push({ id: s.lane.id, name: s.lane.name, bass: bass.channels, curve: s.result.curve });
       }
-      const result = computeHeadroomReport({ sampleRateHz: fs, kick: kick.channels, lanes: laneInputs, hits: map.hits.filter((h) => h.enabled) });
+      const result = await computer.compute({ sampleRateHz: fs, kick: kick.channels, lanes: laneInputs, hits: map.hits.filter((h) => h.enabled) });
       const report: HeadroomReportDto = { songId, sampleRateHz: fs, durationSec: kick.info.durationSec, ...result, computedAt: new Date().toISOString() };
       cache.set(key, report);
       if (cache.size > 16) cache.delete(cache.keys().next().value!);

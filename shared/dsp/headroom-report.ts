@@ -23,6 +23,69 @@ export interface HeadroomResult {
   phase: { laneId: string; hits: (HitPhase & { hitId: string })[]; suggestion: PhaseSuggestion } | null;
 }
 
+/** Figures of one bus and its sample peak around each hit (dBFS, HIT_WINDOW). */
+export interface BusMeasurement {
+  figures: LevelFigures;
+  hitPeaksDbfs: number[];
+}
+
+/** Level figures of a bus and its peak in each hit's window, hits given by time (s). */
+export function measureBus(bus: readonly Float32Array[], sampleRateHz: number, hitTimesSec: readonly number[]): BusMeasurement {
+  return {
+    figures: levelFigures(bus, sampleRateHz),
+    hitPeaksDbfs: hitTimesSec.map((t) => windowPeakDbfs(bus, sampleRateHz, t - HIT_WINDOW.beforeSec, t + HIT_WINDOW.afterSec)),
+  };
+}
+
+/** Each lane's bass after its tucks: bass × the sampled gain curve, into `out` (per lane, one buffer per channel) or new arrays. */
+export function tuckedLanes(input: HeadroomInput, out?: (frames: number) => Float32Array): Float32Array[][] {
+  return input.lanes.map((l) => {
+    const frames = l.bass[0]?.length ?? 0;
+    const gains = sampleGainCurve(l.curve, frames, input.sampleRateHz);
+    return applyGains(l.bass, gains, out ? l.bass.map((ch) => out(ch.length)) : undefined);
+  });
+}
+
+/**
+ * The phase check of the first lane (null without lanes) on the mono mix of
+ * the kick and of its bass (shared/dsp/mixdown.ts; a mono stem as it is).
+ * `buffer` supplies full-length scratch buffers; the stems are left untouched.
+ */
+export function firstLanePhase(input: HeadroomInput, buffer: (frames: number) => Float32Array = (frames) => new Float32Array(frames)): HeadroomResult['phase'] {
+  const first = input.lanes[0];
+  if (!first) return null;
+  const monoOf = (channels: readonly Float32Array[]) => {
+    if (channels.length === 1) return { mono: channels[0], own: false };
+    const mono = buffer(channels[0]?.length ?? 0);
+    mixdownInto(channels, mono);
+    return { mono, own: true };
+  };
+  const kick = monoOf(input.kick);
+  const bass = monoOf(first.bass);
+  // A mixdown made here is filtered in place; a stem passed in is not.
+  const lowBands: [Float32Array, Float32Array] = [kick.own ? kick.mono : buffer(kick.mono.length), bass.own ? bass.mono : buffer(bass.mono.length)];
+  const phase = phaseCheck(kick.mono, bass.mono, input.sampleRateHz, input.hits.map((h) => h.timeSec), {}, lowBands);
+  return { laneId: first.id, hits: phase.hits.map((p, i) => ({ ...p, hitId: input.hits[i].id })), suggestion: phase.suggestion };
+}
+
+/** The report from its measured parts (headroom gained = figure before − figure after, dB). */
+export function assembleHeadroomResult(
+  input: HeadroomInput,
+  parts: { lanes: { before: LevelFigures; after: LevelFigures }[]; before: BusMeasurement; after: BusMeasurement; phase: HeadroomResult['phase'] },
+): HeadroomResult {
+  const { before, after } = parts;
+  return {
+    lanes: input.lanes.map((l, i) => ({ laneId: l.id, name: l.name, before: parts.lanes[i].before, after: parts.lanes[i].after })),
+    sum: { before: before.figures, after: after.figures },
+    headroomGainedDb: {
+      samplePeak: before.figures.samplePeakDbfs - after.figures.samplePeakDbfs,
+      truePeak: before.figures.truePeakDbtp - after.figures.truePeakDbtp,
+    },
+    perHit: input.hits.map((h, i) => ({ hitId: h.id, timeSec: h.timeSec, beforeDbfs: before.hitPeaksDbfs[i], afterDbfs: after.hitPeaksDbfs[i] })),
+    phase: parts.phase,
+  };
+}
+
 /**
  * Full-length buffers that are free again, handed out before fresh ones: on
  * this machine a fresh 5-minute channel (58 MB) costs about 50 ms of page
@@ -41,40 +104,19 @@ function bufferPool(free: Float32Array[]) {
  * gain curve — sample peak, true peak, integrated and maximum short-term
  * loudness — the peak of the sum around each hit, and the phase check of the
  * first lane. Headroom gained = figure before − figure after (dB).
+ * In one thread; server/report/ runs the same steps on two.
  */
 export function computeHeadroomReport(input: HeadroomInput): HeadroomResult {
   const fs = input.sampleRateHz;
-  const lanes = input.lanes.map((l) => {
-    const gains = sampleGainCurve(l.curve, l.bass[0]?.length ?? 0, fs);
-    return { ...l, gains, after: applyGains(l.bass, gains) };
-  });
-  const hitPeaks = (bus: readonly Float32Array[]) => input.hits.map((h) => windowPeakDbfs(bus, fs, h.timeSec - HIT_WINDOW.beforeSec, h.timeSec + HIT_WINDOW.afterSec));
+  const hitTimes = input.hits.map((h) => h.timeSec);
+  const afters = tuckedLanes(input);
   // One bus, summed before the tucks and measured, then summed again after them into the same buffers.
-  const bus = sumStems([input.kick, ...lanes.map((l) => l.bass)]);
-  const before = levelFigures(bus, fs);
-  const perHitBefore = hitPeaks(bus);
-  sumStemsInto([input.kick, ...lanes.map((l) => l.after)], bus);
-  const after = levelFigures(bus, fs);
-  const perHitAfter = hitPeaks(bus);
-
-  // The phase check's mono kick and low bands go into the bus and gain buffers, measured and done with.
-  const buffer = bufferPool([...bus, ...lanes.map((l) => l.gains)]);
-  const first = lanes[0];
-  let phase: ReturnType<typeof phaseCheck> | null = null;
-  if (first) {
-    const kick = input.kick.length === 1 ? input.kick[0] : buffer(input.kick[0]?.length ?? 0);
-    if (kick !== input.kick[0]) mixdownInto(input.kick, kick);
-    const bass = first.bass.length === 1 ? first.bass[0] : buffer(first.bass[0]?.length ?? 0);
-    if (bass !== first.bass[0]) mixdownInto(first.bass, bass);
-    // A mixdown made here is filtered in place; a stem passed in is left untouched.
-    const lowBands: [Float32Array, Float32Array] = [kick === input.kick[0] ? buffer(kick.length) : kick, bass === first.bass[0] ? buffer(bass.length) : bass];
-    phase = phaseCheck(kick, bass, fs, input.hits.map((h) => h.timeSec), {}, lowBands);
-  }
-  return {
-    lanes: lanes.map((l) => ({ laneId: l.id, name: l.name, before: levelFigures(l.bass, fs), after: levelFigures(l.after, fs) })),
-    sum: { before, after },
-    headroomGainedDb: { samplePeak: before.samplePeakDbfs - after.samplePeakDbfs, truePeak: before.truePeakDbtp - after.truePeakDbtp },
-    perHit: input.hits.map((h, i) => ({ hitId: h.id, timeSec: h.timeSec, beforeDbfs: perHitBefore[i], afterDbfs: perHitAfter[i] })),
-    phase: first && phase ? { laneId: first.id, hits: phase.hits.map((p, i) => ({ ...p, hitId: input.hits[i].id })), suggestion: phase.suggestion } : null,
-  };
+  const bus = sumStems([input.kick, ...input.lanes.map((l) => l.bass)]);
+  const before = measureBus(bus, fs, hitTimes);
+  sumStemsInto([input.kick, ...afters], bus);
+  const after = measureBus(bus, fs, hitTimes);
+  // The phase check's mono mixes and low bands go into the bus buffers, measured and done with.
+  const phase = firstLanePhase(input, bufferPool(bus));
+  const lanes = input.lanes.map((l, i) => ({ before: levelFigures(l.bass, fs), after: levelFigures(afters[i], fs) }));
+  return assembleHeadroomResult(input, { lanes, before, after, phase });
 }

@@ -1,0 +1,23 @@
+import { parentPort } from 'node:worker_threads';
+import { measureBus, type BusMeasurement } from '../../shared/dsp/headroom-report';
+
+/** One measurement for the worker: a bus (or a lane) in shared memory, and the hit times to take window peaks at. */
+export interface MeasureJob {
+  id: number;
+  channels: Float32Array[];
+  sampleRateHz: number;
+  hitTimesSec: number[];
+}
+
+export type MeasureReply = { id: number; measurement: BusMeasurement } | { id: number; error: string } | { ready: true };
+
+// Measures buses the main thread has summed into SharedArrayBuffers (no copies), one job at a time.
+const port = parentPort!;
+port.on('message', (job: MeasureJob) => {
+  try {
+    port.postMessage({ id: job.id, measurement: measureBus(job.channels, job.sampleRateHz, job.hitTimesSec) } satisfies MeasureReply);
+  } catch (e) {
+    port.postMessage({ id: job.id, error: e instanceof Error ? (e.stack ?? e.message) : String(e) } satisfies MeasureReply);
+  }
+});
+port.postMessage({ ready: true } satisfies MeasureReply);
