@@ -1,4 +1,5 @@
 import type { GainCurve, GainPoint } from './gain-curve';
+import { GainMemo } from './gain-memo';
 
 export interface ThinOptions {
   /** Largest error allowed, dB, for linear interpolation in dB and in amplitude (default 0.5). */
@@ -23,93 +24,128 @@ const TOLERANCE_SHARE = 0.85;
  * work into short stretches). Units: seconds and dB in and out.
  */
 export function thinCurve(curve: GainCurve, opts: ThinOptions = {}): GainCurve {
-  const ignoreBelow = opts.ignoreBelowDb ?? -40;
+  const ignoreBelowDb = opts.ignoreBelowDb ?? -40;
   if (curve.points.length <= 2) return { ...curve, points: curve.points.slice() };
-  const { t, g, n } = withCrossings(curve.points, ignoreBelow);
-  const tol = (opts.toleranceDb ?? 0.5) * TOLERANCE_SHARE;
-  const ratioTol = Math.pow(10, tol / 20);
-  // Errors are measured in units of the tolerance: 1 = at the limit.
-  const perDb = 1 / tol;
-  const perRatio = 1 / (ratioTol - 1);
-  // 10^(G/20) as e^(G·ln10/20): the same amplitude within a few ulps, a quarter of Math.pow's time.
-  const a = new Float64Array(n);
-  for (let k = 0; k < n; k++) a[k] = Math.exp(g[k] * AMP_PER_DB);
-  const keep = new Uint8Array(n);
-  keep[0] = 1;
-  keep[n - 1] = 1;
-  for (let k = 1; k < n - 1; k++) if (g[k] === g[k - 1] || g[k] === g[k + 1]) keep[k] = 1;
+  const tolDb = (opts.toleranceDb ?? 0.5) * TOLERANCE_SHARE;
+  return { ...curve, points: thinPoints(curve.points, { ignoreBelowDb, db: tolDb, ratio: Math.pow(10, tolDb / 20) }) };
+}
 
+/** `thinCurve` on the points (at least 3). */
+function thinPoints(points: readonly GainPoint[], tol: Tolerance): GainPoint[] {
+  const d = withCrossings(points, tol.ignoreBelowDb);
+  const n = d.n;
+  const keep = new Uint8Array(n);
+  markFlatEnds(d, keep);
   // Each stretch between kept points is thinned on its own, with an explicit stack of chords.
   const stack = new Int32Array(2 * n);
   let start = 0;
   for (let k = 1; k < n; k++) {
     if (!keep[k]) continue;
-    let top = 0;
-    if (k - start > 1) {
-      stack[top++] = start;
-      stack[top++] = k;
-    }
-    while (top > 0) {
-      const j = stack[--top];
-      const i = stack[--top];
-      const span = t[j] - t[i];
-      const perSec = span > 0 ? 1 / span : 0;
-      const ti = t[i];
-      const gi = g[i];
-      const dg = g[j] - gi;
-      const ai = a[i];
-      const da = a[j] - ai;
-      let worst = -1;
-      let worstErr = 1;
-      // |chord − a_m| > min(chord, a_m)·ampSlack ⇔ eAmp > worstErr, loosened by 1e-12 so
-      // that only points that may beat the worst pay for the two divisions.
-      let ampSlack = (ratioTol - 1) * (1 - 1e-12);
-      for (let m = i + 1; m < j; m++) {
-        const gm = g[m];
-        if (gm < ignoreBelow) continue;
-        const u = (t[m] - ti) * perSec;
-        const dDb = gi + dg * u - gm;
-        const eDb = (dDb < 0 ? -dDb : dDb) * perDb;
-        const chord = ai + da * u;
-        const am = a[m];
-        const dAmp = chord > am ? chord - am : am - chord;
-        if (eDb <= worstErr && dAmp <= (chord < am ? chord : am) * ampSlack) continue;
-        const r = chord / am;
-        const eAmp = ((r > 1 ? r : 1 / r) - 1) * perRatio;
-        const e = eDb > eAmp ? eDb : eAmp;
-        if (e > worstErr) {
-          worstErr = e;
-          worst = m;
-          ampSlack = (ratioTol - 1) * worstErr * (1 - 1e-12);
-        }
-      }
-      if (worst > 0) {
-        keep[worst] = 1;
-        if (worst - i > 1) {
-          stack[top++] = i;
-          stack[top++] = worst;
-        }
-        if (j - worst > 1) {
-          stack[top++] = worst;
-          stack[top++] = j;
-        }
-      }
-    }
+    if (k - start > 1) thinStretch(d, tol, start, k, keep, stack);
     start = k;
   }
-  // The kept points, without the middle points of flat runs (they carry nothing).
+  return keptPoints(points, d, keep);
+}
+
+/** Marks the curve's ends and the ends of its flat runs (exact; they split the work into short stretches). */
+function markFlatEnds(d: DenseCurve, keep: Uint8Array): void {
+  const { g, n } = d;
+  keep[0] = 1;
+  keep[n - 1] = 1;
+  for (let k = 1; k < n - 1; k++) if (g[k] === g[k - 1] || g[k] === g[k + 1]) keep[k] = 1;
+}
+
+interface Tolerance {
+  ignoreBelowDb: number;
+  /** dB, straight in dB. */
+  db: number;
+  /** 10^(db/20), straight in amplitude. */
+  ratio: number;
+}
+
+/** RDP over the stretch [first, last] (both kept): marks in `keep` the points its chords need. */
+function thinStretch(d: DenseCurve, tol: Tolerance, first: number, last: number, keep: Uint8Array, stack: Int32Array): void {
+  let top = 0;
+  stack[top++] = first;
+  stack[top++] = last;
+  while (top > 0) {
+    const j = stack[--top];
+    const i = stack[--top];
+    const worst = worstPoint(d, tol, i, j);
+    if (worst < 0) continue;
+    keep[worst] = 1;
+    if (worst - i > 1) {
+      stack[top++] = i;
+      stack[top++] = worst;
+    }
+    if (j - worst > 1) {
+      stack[top++] = worst;
+      stack[top++] = j;
+    }
+  }
+}
+
+/**
+ * The point strictly between i and j that the chord i–j misses by most, in
+ * units of the tolerance (the larger of the dB and the amplitude reading), or
+ * −1 when it misses none by more than the tolerance.
+ */
+function worstPoint(d: DenseCurve, tol: Tolerance, i: number, j: number): number {
+  const { t, g, a } = d;
+  const ignoreBelow = tol.ignoreBelowDb;
+  // Errors are measured in units of the tolerance: 1 = at the limit.
+  const perDb = 1 / tol.db;
+  const perRatio = 1 / (tol.ratio - 1);
+  const span = t[j] - t[i];
+  const perSec = span > 0 ? 1 / span : 0;
+  const ti = t[i];
+  const gi = g[i];
+  const dg = g[j] - gi;
+  const ai = a[i];
+  const da = a[j] - ai;
+  let worst = -1;
+  let worstErr = 1;
+  // |chord − a_m| > min(chord, a_m)·ampSlack ⇔ eAmp > worstErr, loosened by 1e-12 so
+  // that only points that may beat the worst pay for the two divisions.
+  let ampSlack = (tol.ratio - 1) * (1 - 1e-12);
+  for (let m = i + 1; m < j; m++) {
+    const gm = g[m];
+    if (gm < ignoreBelow) continue;
+    const u = (t[m] - ti) * perSec;
+    const dDb = gi + dg * u - gm;
+    const eDb = (dDb < 0 ? -dDb : dDb) * perDb;
+    const chord = ai + da * u;
+    const am = a[m];
+    const dAmp = chord > am ? chord - am : am - chord;
+    if (eDb <= worstErr && dAmp <= (chord < am ? chord : am) * ampSlack) continue;
+    const r = chord / am;
+    const eAmp = ((r > 1 ? r : 1 / r) - 1) * perRatio;
+    const e = eDb > eAmp ? eDb : eAmp;
+    if (e > worstErr) {
+      worstErr = e;
+      worst = m;
+      ampSlack = (tol.ratio - 1) * worstErr * (1 - 1e-12);
+    }
+  }
+  return worst;
+}
+
+/**
+ * The kept points, without the middle points of flat runs (they carry nothing);
+ * the curve's own points are shared, not copied (points are never changed once made).
+ */
+function keptPoints(points: readonly GainPoint[], d: DenseCurve, keep: Uint8Array): GainPoint[] {
+  const { t, g, source, n } = d;
   const slim: GainPoint[] = [];
   for (let k = 0; k < n; k++) {
     if (!keep[k]) continue;
     const s = slim.length;
-    if (s >= 2 && slim[s - 1].gainDb === g[k] && slim[s - 2].gainDb === g[k]) slim[s - 1] = { timeSec: t[k], gainDb: g[k] };
-    else slim.push({ timeSec: t[k], gainDb: g[k] });
+    const p = source[k] >= 0 ? points[source[k]] : { timeSec: t[k], gainDb: g[k] };
+    if (s >= 2 && slim[s - 1].gainDb === g[k] && slim[s - 2].gainDb === g[k]) slim[s - 1] = p;
+    else slim.push(p);
   }
-  return { ...curve, points: slim };
+  return slim;
 }
-
-/** d(ln a)/dG for a = 10^(G/20): ln10/20 per dB. */
-const AMP_PER_DB = Math.LN10 / 20;
 
 /**
  * Segments higher than this are split into pieces this high before thinning
@@ -120,32 +156,38 @@ const AMP_PER_DB = Math.LN10 / 20;
  */
 const MAX_PIECE_DB = 2;
 
+/** The curve to thin, as arrays: time (s), gain (dB), amplitude 10^(G/20), and the index of the original point (−1 for an added one). */
+interface DenseCurve {
+  t: Float64Array;
+  g: Float64Array;
+  a: Float64Array;
+  source: Int32Array;
+  n: number;
+}
+
 /**
  * The curve with a point added wherever a segment crosses `levelDb` and every
  * `MAX_PIECE_DB` along high segments (straight in dB, so exact), as arrays.
  */
-function withCrossings(points: readonly GainPoint[], levelDb: number): { t: Float64Array; g: Float64Array; n: number } {
-  let cap = points.length * 2 + 16;
-  let t = new Float64Array(cap);
-  let g = new Float64Array(cap);
+function withCrossings(points: readonly GainPoint[], levelDb: number): DenseCurve {
+  // At most: every point, a crossing per segment and its pieces' inner points.
+  let cap = points.length;
+  for (let k = 0; k + 1 < points.length; k++) {
+    const dG = points[k + 1].gainDb - points[k].gainDb;
+    if (dG !== 0) cap += Math.ceil(Math.abs(dG) / MAX_PIECE_DB);
+  }
+  const t = new Float64Array(cap);
+  const g = new Float64Array(cap);
+  const a = new Float64Array(cap);
+  const source = new Int32Array(cap);
+  const memo = new GainMemo();
   let n = 0;
-  const push = (time: number, gain: number) => {
-    if (n === cap) {
-      cap *= 2;
-      const t2 = new Float64Array(cap);
-      const g2 = new Float64Array(cap);
-      t2.set(t);
-      g2.set(g);
-      t = t2;
-      g = g2;
-    }
-    t[n] = time;
-    g[n] = gain;
-    n++;
-  };
   for (let k = 0; k < points.length; k++) {
     const p = points[k];
-    push(p.timeSec, p.gainDb);
+    t[n] = p.timeSec;
+    g[n] = p.gainDb;
+    a[n] = memo.amplitude(p.gainDb);
+    source[n++] = k;
     const q = points[k + 1];
     if (!q) break;
     const dG = q.gainDb - p.gainDb;
@@ -159,12 +201,23 @@ function withCrossings(points: readonly GainPoint[], levelDb: number): { t: Floa
       if (!crossed && crossing <= u) {
         crossed = true;
         const time = p.timeSec + span * crossing;
-        if (time > t[n - 1] && time < q.timeSec && crossing < u) push(time, levelDb);
+        if (time > t[n - 1] && time < q.timeSec && crossing < u) {
+          t[n] = time;
+          g[n] = levelDb;
+          a[n] = memo.amplitude(levelDb);
+          source[n++] = -1;
+        }
       }
       if (j === pieces) break;
       const time = p.timeSec + span * u;
-      if (time > t[n - 1] && time < q.timeSec) push(time, p.gainDb + dG * u);
+      if (time > t[n - 1] && time < q.timeSec) {
+        const gain = p.gainDb + dG * u;
+        t[n] = time;
+        g[n] = gain;
+        a[n] = memo.amplitude(gain);
+        source[n++] = -1;
+      }
     }
   }
-  return { t, g, n };
+  return { t, g, a, source, n };
 }
