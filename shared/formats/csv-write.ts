@@ -1,4 +1,5 @@
 import type { GainCurve } from '../dsp/gain-curve';
+import { GainMemo } from '../dsp/gain-memo';
 import { csvExportOptionsSchema, type CsvExportOptionsInput } from '../schemas/export-options';
 
 /** The header, in column order. */
@@ -20,6 +21,7 @@ export function writeBreakpointCsv(curve: GainCurve, options: CsvExportOptionsIn
   const ticksPerBeat = (o.ppq * 4) / den;
   const ticksPerBar = ticksPerBeat * num;
   const ticksPerSec = (o.bpm * o.ppq) / 60;
+  const sampleRate = o.sampleRate;
   // Rows are written as ASCII into one buffer with integer arithmetic (no
   // per-row strings: a song's CSV has tens of thousands of rows).
   let buf = new Uint8Array(HEADER.length + 2 + curve.points.length * 48 + MAX_ROW_BYTES);
@@ -27,6 +29,13 @@ export function writeBreakpointCsv(curve: GainCurve, options: CsvExportOptionsIn
   for (let i = 0; i < HEADER.length; i++) buf[at++] = HEADER.charCodeAt(i);
   buf[at++] = 13;
   buf[at++] = 10;
+  const wholeBeats = Number.isInteger(ticksPerBeat);
+  let bar = 0;
+  let barStart = 0;
+  let nextBar = 0;
+  let beat = 0;
+  let nextBeat = 0;
+  const memo = new GainMemo();
   let lastMicros = -1;
   let lastGain = NaN;
   let milliDb = 0;
@@ -39,7 +48,7 @@ export function writeBreakpointCsv(curve: GainCurve, options: CsvExportOptionsIn
     if (p.gainDb !== lastGain) {
       lastGain = p.gainDb;
       milliDb = Math.round(p.gainDb * 1000);
-      linMicro = roundedMicroGain(p.gainDb);
+      linMicro = roundedMicroGain(memo, p.gainDb);
     }
     if (at + MAX_ROW_BYTES > buf.length) {
       const next = new Uint8Array(buf.length * 2);
@@ -50,13 +59,30 @@ export function writeBreakpointCsv(curve: GainCurve, options: CsvExportOptionsIn
     buf[at++] = 44;
     at = putFixed(buf, at, milliDb, 3);
     buf[at++] = 44;
-    at = putUint(buf, at, Math.round(t * o.sampleRate));
+    at = putUint(buf, at, Math.round(t * sampleRate));
     buf[at++] = 44;
-    // bar.beat.tick, as secondsToBarBeatTick (bar-beat.ts) computes it.
+    // bar.beat.tick, as secondsToBarBeatTick (bar-beat.ts) computes it. Ticks never
+    // fall (times rise), so with whole ticks per beat the bar and beat are counted
+    // on from the last row's (exact in integers; no division per row).
     const ticks = Math.round(t * ticksPerSec);
-    const bar = Math.floor(ticks / ticksPerBar);
-    const inBar = ticks - bar * ticksPerBar;
-    const beat = Math.floor(inBar / ticksPerBeat);
+    if (wholeBeats) {
+      if (ticks >= nextBar) {
+        bar = Math.floor(ticks / ticksPerBar);
+        barStart = bar * ticksPerBar;
+        nextBar = barStart + ticksPerBar;
+        beat = 0;
+        nextBeat = barStart + ticksPerBeat;
+      }
+      while (ticks >= nextBeat) {
+        beat++;
+        nextBeat += ticksPerBeat;
+      }
+    } else {
+      bar = Math.floor(ticks / ticksPerBar);
+      barStart = bar * ticksPerBar;
+      beat = Math.floor((ticks - barStart) / ticksPerBeat);
+    }
+    const inBar = ticks - barStart;
     at = putUint(buf, at, bar + 1);
     buf[at++] = 46;
     at = putUint(buf, at, beat + 1);
@@ -80,17 +106,14 @@ const MAX_ROW_BYTES = 160;
 
 const POW10 = [1, 10, 100, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9];
 
-/** ln10/20: 10^(G/20) = e^(G·ln10/20). */
-const NEPER_PER_DB = Math.LN10 / 20;
-
 /**
  * round(10^(G/20)·10^6), as `Math.round(Math.pow(10, G / 20) * 1e6)` gives it:
- * through `Math.exp` (a quarter of `Math.pow`'s time here), which differs by a
- * few ulps, so a value within 10^−12 (relative) of a rounding tie is redone
- * with `Math.pow`.
+ * through `Math.exp` (`GainMemo`, a fraction of `Math.pow`'s time here), which
+ * differs by a few ulps, so a value within 10^−12 (relative) of a rounding tie
+ * is redone with `Math.pow`.
  */
-function roundedMicroGain(gainDb: number): number {
-  const y = Math.exp(gainDb * NEPER_PER_DB) * 1e6;
+function roundedMicroGain(memo: GainMemo, gainDb: number): number {
+  const y = memo.amplitude(gainDb) * 1e6;
   const tie = y - Math.floor(y) - 0.5;
   if ((tie < 0 ? -tie : tie) <= y * 1e-12) return Math.round(Math.pow(10, gainDb / 20) * 1e6);
   return Math.round(y);
@@ -103,11 +126,19 @@ for (let n = 0; n < 100; n++) {
   DIGIT_PAIRS[2 * n + 1] = 48 + (n % 10);
 }
 
+/** Decimal digits of a non-negative integer below 2^53 (at least 1). */
+function digitCount(v: number): number {
+  if (v < 1e4) return v < 10 ? 1 : v < 100 ? 2 : v < 1e3 ? 3 : 4;
+  if (v < 1e8) return v < 1e5 ? 5 : v < 1e6 ? 6 : v < 1e7 ? 7 : 8;
+  let digits = 9;
+  for (let p = 1e9; p <= v; p *= 10) digits++;
+  return digits;
+}
+
 /** Writes a non-negative integer in decimal at `at`; returns the index after it. */
 function putUint(buf: Uint8Array, at: number, v: number): number {
-  let digits = 1;
-  for (let p = 10; p <= v; p *= 10) digits++;
-  let i = at + digits;
+  const end = at + digitCount(v);
+  let i = end;
   let x = v;
   while (x > 0x7fffffff) {
     const q = Math.floor(x / 10);
@@ -126,7 +157,7 @@ function putUint(buf: Uint8Array, at: number, v: number): number {
     buf[--i] = DIGIT_PAIRS[2 * s + 1];
     buf[--i] = DIGIT_PAIRS[2 * s];
   } else buf[--i] = 48 + s;
-  return at + digits;
+  return end;
 }
 
 /**
@@ -142,17 +173,18 @@ function putFixed(buf: Uint8Array, at: number, scaled: number, decimals: number)
   const whole = Math.floor(scaled / unit);
   let frac = (scaled - whole * unit) | 0;
   at = putUint(buf, at, whole);
-  buf[at++] = 46;
-  let i = at + decimals;
-  for (let d = decimals; d >= 2; d -= 2) {
+  buf[at] = 46;
+  const end = at + 1 + decimals;
+  let i = end;
+  while (i - at > 2) {
     const q = (frac / 100) | 0;
     const r = 2 * (frac - q * 100);
     buf[--i] = DIGIT_PAIRS[r + 1];
     buf[--i] = DIGIT_PAIRS[r];
     frac = q;
   }
-  if (i > at) buf[--i] = 48 + frac;
-  return at + decimals;
+  if (i - at > 1) buf[--i] = 48 + frac;
+  return end;
 }
 
 /** ASCII bytes → string. */
