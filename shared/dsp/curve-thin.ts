@@ -1,5 +1,5 @@
 import type { GainCurve, GainPoint } from './gain-curve';
-import { GainMemo } from './gain-memo';
+import { amplitudeMemo } from './gain-memo';
 
 export interface ThinOptions {
   /** Largest error allowed, dB, for linear interpolation in dB and in amplitude (default 0.5). */
@@ -36,8 +36,15 @@ function thinPoints(points: readonly GainPoint[], tol: Tolerance): GainPoint[] {
   const n = d.n;
   const keep = new Uint8Array(n);
   markFlatEnds(d, keep);
-  // Each stretch between kept points is thinned on its own, with an explicit stack of chords.
-  const stack = new Int32Array(2 * n);
+  // Each stretch between kept points is thinned on its own, with an explicit stack of
+  // chords (disjoint, so at most one per point of the longest stretch).
+  let longest = 0;
+  for (let k = 1, from = 0; k < n; k++) {
+    if (!keep[k]) continue;
+    if (k - from > longest) longest = k - from;
+    from = k;
+  }
+  const stack = new Int32Array(2 * longest + 2);
   let start = 0;
   for (let k = 1; k < n; k++) {
     if (!keep[k]) continue;
@@ -117,9 +124,10 @@ function worstPoint(d: DenseCurve, tol: Tolerance, i: number, j: number): number
     const chord = ai + da * u;
     const am = a[m];
     const dAmp = chord > am ? chord - am : am - chord;
-    if (eDb <= worstErr && dAmp <= (chord < am ? chord : am) * ampSlack) continue;
-    const r = chord / am;
-    const eAmp = ((r > 1 ? r : 1 / r) - 1) * perRatio;
+    const low = chord < am ? chord : am;
+    if (eDb <= worstErr && dAmp <= low * ampSlack) continue;
+    // max/min − 1 = |chord − a_m| / min(chord, a_m).
+    const eAmp = (dAmp / low) * perRatio;
     const e = eDb > eAmp ? eDb : eAmp;
     if (e > worstErr) {
       worstErr = e;
@@ -180,13 +188,13 @@ function withCrossings(points: readonly GainPoint[], levelDb: number): DenseCurv
   const g = new Float64Array(cap);
   const a = new Float64Array(cap);
   const source = new Int32Array(cap);
-  const memo = new GainMemo();
+  const memo = amplitudeMemo();
   let n = 0;
   for (let k = 0; k < points.length; k++) {
     const p = points[k];
     t[n] = p.timeSec;
     g[n] = p.gainDb;
-    a[n] = memo.amplitude(p.gainDb);
+    a[n] = memo.of(p.gainDb);
     source[n++] = k;
     const q = points[k + 1];
     if (!q) break;
@@ -204,7 +212,7 @@ function withCrossings(points: readonly GainPoint[], levelDb: number): DenseCurv
         if (time > t[n - 1] && time < q.timeSec && crossing < u) {
           t[n] = time;
           g[n] = levelDb;
-          a[n] = memo.amplitude(levelDb);
+          a[n] = memo.of(levelDb);
           source[n++] = -1;
         }
       }
@@ -214,7 +222,7 @@ function withCrossings(points: readonly GainPoint[], levelDb: number): DenseCurv
         const gain = p.gainDb + dG * u;
         t[n] = time;
         g[n] = gain;
-        a[n] = memo.amplitude(gain);
+        a[n] = memo.of(gain);
         source[n++] = -1;
       }
     }

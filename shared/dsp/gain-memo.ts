@@ -1,32 +1,41 @@
 /** ln10/20 per dB: 10^(G/20) = e^(G·ln10/20) (the decibel for amplitude quantities, IEC 60027-3). */
 const NEPER_PER_DB = Math.LN10 / 20;
 
-/** Slots of the memo (a power of two). */
+/** Slots of a memo (a power of two: 2^12). */
 const SLOTS = 4096;
 
 /**
- * dB → linear amplitude, a = e^(G·ln10/20) = 10^(G/20), memoised in a small
- * direct-mapped table keyed by the exact dB value. A stamped curve repeats
- * the same few dozen gains at every hit (one template per depth), so most
- * look-ups skip the `Math.exp` (which costs several times a look-up here).
- * The value for a given G is always the same double, memoised or not. Our
- * choice; `Math.exp` rather than `Math.pow(10, ·)`, which takes about three
- * times as long and differs by a few ulps.
+ * A function of a gain in dB, memoised in a small direct-mapped table keyed
+ * by the exact dB value. A stamped curve repeats the same few dozen gains at
+ * every hit (one template per depth), so most look-ups skip the function
+ * (`Math.exp` and `Math.pow` cost several times a look-up here). The value
+ * for a given dB is always the function's own, memoised or not. Our choice.
  */
-export class GainMemo {
+export class DbMemo {
   private readonly keys = new Float64Array(SLOTS).fill(NaN);
   private readonly values = new Float64Array(SLOTS);
   private readonly bits = new Float64Array(1);
   private readonly words = new Uint32Array(this.bits.buffer);
 
-  /** 10^(gainDb/20), within a few ulps. */
-  amplitude(gainDb: number): number {
+  constructor(private readonly fn: (gainDb: number) => number) {}
+
+  /** fn(gainDb). */
+  of(gainDb: number): number {
     this.bits[0] = gainDb;
     const slot = Math.imul(this.words[0] ^ this.words[1], 0x9e3779b1) >>> 20;
     if (this.keys[slot] === gainDb) return this.values[slot];
-    const a = Math.exp(gainDb * NEPER_PER_DB);
+    const v = this.fn(gainDb);
     this.keys[slot] = gainDb;
-    this.values[slot] = a;
-    return a;
+    this.values[slot] = v;
+    return v;
   }
+}
+
+/**
+ * dB → linear amplitude, a = e^(G·ln10/20) = 10^(G/20), memoised (`DbMemo`).
+ * `Math.exp` rather than `Math.pow(10, ·)`, which takes about three times as
+ * long here and differs by a few ulps.
+ */
+export function amplitudeMemo(): DbMemo {
+  return new DbMemo((gainDb) => Math.exp(gainDb * NEPER_PER_DB));
 }

@@ -1,5 +1,5 @@
 import type { GainCurve } from '../dsp/gain-curve';
-import { GainMemo } from '../dsp/gain-memo';
+import { amplitudeMemo, type DbMemo } from '../dsp/gain-memo';
 import { csvExportOptionsSchema, type CsvExportOptionsInput } from '../schemas/export-options';
 
 /** The header, in column order. */
@@ -35,7 +35,7 @@ export function writeBreakpointCsv(curve: GainCurve, options: CsvExportOptionsIn
   let nextBar = 0;
   let beat = 0;
   let nextBeat = 0;
-  const memo = new GainMemo();
+  const memo = amplitudeMemo();
   let lastMicros = -1;
   let lastGain = NaN;
   let milliDb = 0;
@@ -108,12 +108,12 @@ const POW10 = [1, 10, 100, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9];
 
 /**
  * round(10^(G/20)·10^6), as `Math.round(Math.pow(10, G / 20) * 1e6)` gives it:
- * through `Math.exp` (`GainMemo`, a fraction of `Math.pow`'s time here), which
+ * through `Math.exp` (`amplitudeMemo`, a fraction of `Math.pow`'s time here), which
  * differs by a few ulps, so a value within 10^−12 (relative) of a rounding tie
  * is redone with `Math.pow`.
  */
-function roundedMicroGain(memo: GainMemo, gainDb: number): number {
-  const y = memo.amplitude(gainDb) * 1e6;
+function roundedMicroGain(memo: DbMemo, gainDb: number): number {
+  const y = memo.of(gainDb) * 1e6;
   const tie = y - Math.floor(y) - 0.5;
   if ((tie < 0 ? -tie : tie) <= y * 1e-12) return Math.round(Math.pow(10, gainDb / 20) * 1e6);
   return Math.round(y);

@@ -2,6 +2,7 @@ import type { GainCurve } from '../dsp/gain-curve';
 import { midiExportOptionsSchema, type MidiExportOptionsInput } from '../schemas/export-options';
 import { secondsToTicks } from './bar-beat';
 import { encodeVlq, writeVlq } from './vlq';
+import { DbMemo } from '../dsp/gain-memo';
 
 /**
  * Gain → 7-bit controller value: v = round(127 · 10^(G/40)), 0 at or below the
@@ -183,6 +184,8 @@ export function ccChanges(curve: GainCurve, bpm: number, ppq: number, fullScale:
   const ticksPerSec = (bpm * ppq) / 60;
   let written = -1;
   let pendingTick = 0;
+  // 10^(G/40) of the breakpoints' gains, which repeat at every hit: the same Math.pow, memoised.
+  const x40 = new DbMemo((gainDb) => Math.pow(10, gainDb / 40));
   let pendingValue = ccValue(p[0].gainDb, floorDb, fullScale);
   for (let i = 0; i + 1 < p.length; i++) {
     const a = p[i];
@@ -197,7 +200,7 @@ export function ccChanges(curve: GainCurve, bpm: number, ppq: number, fullScale:
     const gHi = a.gainDb < b.gainDb ? b.gainDb : a.gainDb;
     if (flat || kStart === kEnd) {
       let value: number;
-      if (flat) value = ccValue(a.gainDb, floorDb, fullScale);
+      if (flat) value = a.gainDb <= floorDb ? 0 : Math.max(0, Math.min(fullScale, Math.round(fullScale * x40.of(a.gainDb))));
       else {
         const gc = gStart < gLo ? gLo : gStart > gHi ? gHi : gStart;
         // Through Math.exp, a third of Math.pow's time; where that few-ulp difference could
@@ -224,8 +227,8 @@ export function ccChanges(curve: GainCurve, bpm: number, ppq: number, fullScale:
     }
     const ratio = Math.pow(10, dbPerTick / 40);
     let x = Math.pow(10, gStart / 40);
-    const xLo = Math.pow(10, gLo / 40);
-    const xHi = Math.pow(10, gHi / 40);
+    const xLo = x40.of(gLo);
+    const xHi = x40.of(gHi);
     for (let k = kStart; k <= kEnd; k++, x *= ratio) {
       const xc = x < xLo ? xLo : x > xHi ? xHi : x;
       const value = xc <= xFloor ? 0 : Math.min(fullScale, Math.round(fullScale * xc));
