@@ -64,8 +64,24 @@ export function firstLanePhase(input: HeadroomInput, buffer: (frames: number) =>
   const bass = monoOf(first.bass);
   // A mixdown made here is filtered in place; a stem passed in is not.
   const lowBands: [Float32Array, Float32Array] = [kick.own ? kick.mono : buffer(kick.mono.length), bass.own ? bass.mono : buffer(bass.mono.length)];
-  const phase = phaseCheck(kick.mono, bass.mono, input.sampleRateHz, input.hits.map((h) => h.timeSec), {}, lowBands);
-  return { laneId: first.id, hits: phase.hits.map((p, i) => ({ ...p, hitId: input.hits[i].id })), suggestion: phase.suggestion };
+  return phaseOfMonos(first.id, input.hits, input.sampleRateHz, kick.mono, bass.mono, lowBands);
+}
+
+/**
+ * The report's phase entry for one lane from the mono kick and bass
+ * (shared/dsp/phase-check.ts), the low bands written to `lowBands` (the monos
+ * themselves when they may be overwritten).
+ */
+export function phaseOfMonos(
+  laneId: string,
+  hits: HeadroomInput['hits'],
+  sampleRateHz: number,
+  kickMono: Float32Array,
+  bassMono: Float32Array,
+  lowBands: [Float32Array, Float32Array],
+): NonNullable<HeadroomResult['phase']> {
+  const phase = phaseCheck(kickMono, bassMono, sampleRateHz, hits.map((h) => h.timeSec), {}, lowBands);
+  return { laneId, hits: phase.hits.map((p, i) => ({ ...p, hitId: hits[i].id })), suggestion: phase.suggestion };
 }
 
 /** The report from its measured parts (headroom gained = figure before − figure after, dB). */
