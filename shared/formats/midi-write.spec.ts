@@ -1,4 +1,7 @@
 import { describe, expect, it } from 'vitest';
+import { parseMidi } from 'midi-file';
+import type { GainCurve, GainPoint } from '../dsp/gain-curve';
+import { gainDbAt } from '../dsp/gain';
 import { cc14ToGainDb, cc7ToGainDb, ccStream, gainDbToCc14, gainDbToCc7, writeMidiCc } from './midi-write';
 
 describe('MIDI CC mapping', () => {
@@ -43,5 +46,75 @@ describe('writeMidiCc', () => {
     expect(s[0]).toEqual({ tick: 0, value: 127 });
     expect(s.find((e) => e.tick === 1152)?.value ?? s.filter((e) => e.tick <= 1152).pop()!.value).toBe(gainDbToCc7(-40));
     expect(s[s.length - 1].value).toBe(127);
+  });
+});
+
+/** mulberry32: a small seeded PRNG so property tests replay (common practice, no source). */
+function rng(seed: number) {
+  return () => {
+    seed = (seed + 0x6d2b79f5) | 0;
+    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
+    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+describe('writeMidiCc against a reference sampling', () => {
+  it('holds round(F·10^(G/40)) of the curve at every tick, 0 at the floor, read back by midi-file (property: random curves, tempos, PPQs, 7 and 14 bits)', () => {
+    const r = rng(5);
+    let ticksChecked = 0;
+    let ambiguous = 0;
+    const mismatches: string[] = [];
+    for (let k = 0; k < 40; k++) {
+      const floorDb = -60 - Math.floor(r() * 3) * 10;
+      const points: GainPoint[] = [];
+      let t = 0;
+      let g = 0;
+      const n = 2 + Math.floor(r() * 120);
+      for (let i = 0; i < n; i++) {
+        points.push({ timeSec: t, gainDb: g });
+        // Segments shorter than a tick, flat holds, holds at the floor, long fades.
+        t += r() < 0.4 ? r() * 0.0008 : r() * (r() < 0.1 ? 2 : 0.08);
+        g = r() < 0.25 ? g : r() < 0.15 ? floorDb : Math.max(floorDb, 6 - r() * 70);
+      }
+      const curve: GainCurve = { points, floorDb };
+      const bpm = 40 + r() * 200;
+      const ppq = [960, 480, 96, 1920][Math.floor(r() * 4)];
+      const fourteenBit = r() < 0.5;
+      const fullScale = fourteenBit ? 16383 : 127;
+      const cc = 1 + Math.floor(r() * 31);
+      const file = parseMidi(writeMidiCc([{ name: 'Bass', curve }], { bpm, ppq, cc, fourteenBit }));
+      expect(file.header.ticksPerBeat).toBe(ppq);
+      // The value the lane holds at each tick, from the events as an independent parser reads them.
+      const held = new Map<number, number>();
+      let tick = 0;
+      let msb = 0;
+      for (const e of file.tracks[1]) {
+        tick += e.deltaTime;
+        if (e.type !== 'controller') continue;
+        if (!fourteenBit) held.set(tick, e.value);
+        else if (e.controllerType === cc) msb = e.value;
+        else held.set(tick, msb * 128 + e.value);
+      }
+      const ticksPerSec = (bpm * ppq) / 60;
+      const lastTick = Math.floor(points[points.length - 1].timeSec * ticksPerSec);
+      let value = -1;
+      for (let q = 0; q <= lastTick; q++) {
+        value = held.get(q) ?? value;
+        const gain = gainDbAt(curve, q / ticksPerSec);
+        const scaled = fullScale * Math.pow(10, gain / 40);
+        // Where rounding errors of either computation could decide, either answer is right.
+        if (Math.abs(scaled - Math.floor(scaled) - 0.5) < 1e-6 || (gain !== floorDb && Math.abs(gain - floorDb) < 1e-6)) {
+          ambiguous++;
+          continue;
+        }
+        const want = gain <= floorDb ? 0 : Math.min(fullScale, Math.round(scaled));
+        if (value !== want) mismatches.push(`curve ${k}, tick ${q}: ${value}, not ${want}`);
+        ticksChecked++;
+      }
+    }
+    expect(mismatches.slice(0, 5)).toEqual([]);
+    expect(ticksChecked).toBeGreaterThan(100_000);
+    expect(ambiguous).toBeLessThan(ticksChecked / 100);
   });
 });
