@@ -145,12 +145,18 @@ function worstPoint(d: DenseCurve, tol: Tolerance, i: number, j: number): number
 function keptPoints(points: readonly GainPoint[], d: DenseCurve, keep: Uint8Array): GainPoint[] {
   const { t, g, source, n } = d;
   const slim: GainPoint[] = [];
+  // Dense indexes of the last two points in `slim` (−1: none yet).
+  let last = -1;
+  let beforeLast = -1;
   for (let k = 0; k < n; k++) {
     if (!keep[k]) continue;
-    const s = slim.length;
     const p = source[k] >= 0 ? points[source[k]] : { timeSec: t[k], gainDb: g[k] };
-    if (s >= 2 && slim[s - 1].gainDb === g[k] && slim[s - 2].gainDb === g[k]) slim[s - 1] = p;
-    else slim.push(p);
+    if (beforeLast >= 0 && g[last] === g[k] && g[beforeLast] === g[k]) slim[slim.length - 1] = p;
+    else {
+      slim.push(p);
+      beforeLast = last;
+    }
+    last = k;
   }
   return slim;
 }

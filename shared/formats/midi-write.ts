@@ -232,15 +232,14 @@ export function ccChanges(curve: GainCurve, bpm: number, ppq: number, fullScale:
     for (let k = kStart; k <= kEnd; k++, x *= ratio) {
       const xc = x < xLo ? xLo : x > xHi ? xHi : x;
       const value = xc <= xFloor ? 0 : Math.min(fullScale, Math.round(fullScale * xc));
-      if (k !== pendingTick) {
-        if (pendingValue !== written) {
-          if (out.n === out.ticks.length) growCcChanges(out);
-          out.ticks[out.n] = pendingTick;
-          out.values[out.n++] = pendingValue;
-          written = pendingValue;
-        }
-        pendingTick = k;
+      // Inside the segment each tick has one value, so the pending one is final at the next tick.
+      if (k !== pendingTick && pendingValue !== written) {
+        if (out.n === out.ticks.length) growCcChanges(out);
+        out.ticks[out.n] = pendingTick;
+        out.values[out.n++] = pendingValue;
+        written = pendingValue;
       }
+      pendingTick = k;
       pendingValue = value;
     }
   }
