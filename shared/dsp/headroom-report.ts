@@ -37,12 +37,18 @@ export function measureBus(bus: readonly Float32Array[], sampleRateHz: number, h
   };
 }
 
-/** Each lane's bass after its tucks: bass × the sampled gain curve, into `out` (per lane, one buffer per channel) or new arrays. */
-export function tuckedLanes(input: HeadroomInput, out?: (frames: number) => Float32Array): Float32Array[][] {
+/**
+ * Each lane's bass after its tucks: bass × the sampled gain curve, in buffers
+ * from `buffer`. The gains are sampled into the last channel's buffer and
+ * multiplied in place there (applyGains does that channel last), which saves
+ * a full-length temporary per lane.
+ */
+export function tuckedLanes(input: HeadroomInput, buffer: (frames: number) => Float32Array = (frames) => new Float32Array(frames)): Float32Array[][] {
   return input.lanes.map((l) => {
     const frames = l.bass[0]?.length ?? 0;
-    const gains = sampleGainCurve(l.curve, frames, input.sampleRateHz);
-    return applyGains(l.bass, gains, out ? l.bass.map((ch) => out(ch.length)) : undefined);
+    const gains = sampleGainCurve(l.curve, frames, input.sampleRateHz, buffer(frames));
+    const last = l.bass.length - 1;
+    return applyGains(l.bass, gains, l.bass.map((ch, c) => (c === last && ch.length === frames ? gains : buffer(ch.length))));
   });
 }
 

@@ -80,7 +80,8 @@ function addInto(out: Float32Array, x: Float32Array, scale: number): void {
 /**
  * Multiplies every channel by a per-frame linear gain (same length or shorter:
  * missing gains count as 1), into `out` (one buffer per channel, as long as
- * it) or new arrays.
+ * it) or new arrays. Channels go in order, each sample read before it is
+ * written, so `gains` itself may be the last channel's buffer.
  */
 export function applyGains(channels: readonly Float32Array[], gains: Float32Array, out: Float32Array[] = channels.map((ch) => new Float32Array(ch.length))): Float32Array[] {
   return channels.map((ch, c) => {
