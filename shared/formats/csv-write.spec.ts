@@ -54,7 +54,7 @@ function referenceCsv(curve: GainCurve, sampleRate: number, bpm: number, timeSig
 describe('writeBreakpointCsv against a reference encoding', () => {
   it('is byte for byte the row-by-row string encoding on random curves, tempos, meters and PPQs (property; bar.beat.tick from bar-beat.ts)', () => {
     const r = rng(11);
-    const meters: [number, number][] = [[4, 4], [3, 4], [6, 8], [7, 8], [5, 16], [3, 32], [2, 2]];
+    const meters: [number, 1 | 2 | 4 | 8 | 16 | 32][] = [[4, 4], [3, 4], [6, 8], [7, 8], [5, 16], [3, 32], [2, 2]];
     let rows = 0;
     for (let k = 0; k < 120; k++) {
       const points: GainPoint[] = [];

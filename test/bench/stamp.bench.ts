@@ -66,6 +66,8 @@ export async function benchStamp(): Promise<BenchSection> {
   let thinPoints = 0;
   let csvBytes = 0;
   let midiBytes = 0;
+  // As the product exports (server/engine/engine.service.ts): the CSV gets the
+  // thinned curve (exportCsv), the MIDI file the curve as stamped (exportMidi).
   const full = time(40, 8, () => {
     const { curve } = stampHits(hits2000, shape, { durationSec: song2000, baseGainDb: -2 });
     const csv = writeBreakpointCsv(thinCurve(curve), { sampleRate: 48000, bpm: 128 });
