@@ -78,7 +78,7 @@ export function firstLanePhase(input: HeadroomInput, buffer: (frames: number) =>
  * (shared/dsp/phase-check.ts), the low bands written to `lowBands` (the monos
  * themselves when they may be overwritten).
  */
-export function phaseOfMonos(
+function phaseOfMonos(
   laneId: string,
   hits: HeadroomInput['hits'],
   sampleRateHz: number,
@@ -113,7 +113,7 @@ export function assembleHeadroomResult(
  * this machine a fresh 5-minute channel (58 MB) costs about 50 ms of page
  * faults, more than most passes over it. Contents are left as they are.
  */
-function bufferPool(free: Float32Array[]) {
+export function bufferPool(free: Float32Array[]) {
   return (frames: number): Float32Array => {
     const i = free.findIndex((b) => b.length >= frames);
     return i < 0 ? new Float32Array(frames) : free.splice(i, 1)[0].subarray(0, frames);
