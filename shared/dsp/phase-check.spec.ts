@@ -41,4 +41,20 @@ describe('phaseCheck (known by construction; summing values from REFERENCES.md "
     expect(suggestion.offsetMs).toBeCloseTo(-3, 5);
     expect(suggestion.meanCorrelationSuggested).toBeGreaterThan(suggestion.meanCorrelationNow);
   });
+
+  it('reads the mean correlation now as the mean of the hits\' correlations, hits at either end included', () => {
+    // Known by construction: both are Pearson r over the same low-band windows.
+    let seed = 8;
+    const rand = () => ((seed = (seed * 1664525 + 1013904223) >>> 0) / 4294967296) * 2 - 1;
+    const kick = Float32Array.from({ length: fs * 3 }, () => rand());
+    const bass = Float32Array.from({ length: fs * 3 }, (_, i) => 0.5 * kick[i] + 0.5 * rand());
+    const edges = [0, 0.002, 1.5, 2.97, 2.999];
+    const { hits, suggestion } = phaseCheck(kick, bass, fs, edges);
+    const rs = hits.map((h) => h.correlation).filter(Number.isFinite);
+    expect(rs.length).toBe(edges.length);
+    expect(suggestion.meanCorrelationNow).toBeCloseTo(rs.reduce((a, b) => a + b, 0) / rs.length, 12);
+    expect(suggestion.offsetMs).toBe(0);
+    expect(suggestion.invertBass).toBe(false);
+  });
 });
+
