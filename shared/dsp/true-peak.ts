@@ -145,12 +145,14 @@ export function truePeakLinearFull(samples: Float32Array): number {
  * Sample peak and true peak of one channel (linear, full scale = 1), in one
  * pass over the samples plus the few blocks that can hold the true peak.
  *
- * Two economies keep a 5-minute stem cheap:
+ * Three economies keep a 5-minute stem cheap:
  * - Each block of BLOCK samples gets a bound on its interpolated values from
  *   the range of x under its taps (`tapAbsSum` above). The search starts at
  *   the sampled peak's block and then skips every block whose bound cannot
  *   beat the peak found so far: on a kick-plus-bass sum only the blocks around
  *   the kicks' peaks are interpolated.
+ * - An interval is interpolated only when its sharper bound (`centreTaps`)
+ *   can beat the peak found so far. Neither bound changes the result.
  * - Inside a block, only the intervals within two samples of a local maximum
  *   of |x| are interpolated: the reconstructed waveform's peaks sit beside the
  *   sampled peaks that bracket them. Plateaus (the EBU Tech 3341 fs/4 cases,
