@@ -1,5 +1,4 @@
 import { closeSync, openSync, readSync } from 'node:fs';
-import { availableParallelism } from 'node:os';
 import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
 import type { WavLayout } from '../../shared/formats/wav-header';
 import { decodeMonoBlockInto, wavDataBlocks } from '../../shared/formats/wav-read';
@@ -7,6 +6,7 @@ import { createLowBandBuilder, pushLowBand, type LowBandBuilder } from '../../sh
 import { ONSET_BLOCK_FRAMES, predictionOnsetFrames, type PredictionOnsetFunction } from '../../shared/dsp/onset-function';
 import { refineCandidates, refinementReach, type Candidate, type RefinedOnset } from '../../shared/dsp/onsets';
 import type { LowBand } from '../../shared/dsp/low-band';
+import { MEDIAN_STRIDE, movingMedianInto } from '../../shared/dsp/peak-pick';
 import type { DetectionOptions } from '../../shared/schemas/hit';
 import { AudioInputError } from './audio-errors';
 
@@ -28,18 +28,21 @@ import { AudioInputError } from './audio-errors';
  * window around each candidate, so each thread decodes those windows again
  * into its own, mostly untouched, full-length array (fillWindows).
  * The equality with the single-thread path is a test
- * (test/reference/detection-split.test.ts).
+ * (test/reference/detection-split.test.ts). Opt-in (detectKickFile's
+ * `threads: 2`, the CLI's `--threads 2`): on this project's 2-vCPU machine
+ * two busy threads each ran ~30 % slower than one alone and the worker
+ * starts ~100 ms late, so the split saved nothing (docs/engine.md).
  */
 
 /** Filter warm-up of the worker before its part of the song, seconds. */
 const WARM_UP_SEC = 1;
-/** Below this length a second thread costs more to start than it saves. */
+/** Below this length a second thread costs more to start than it saves (splitPlan's default). */
 export const SPLIT_MIN_SEC = 40;
 /**
  * Share of the song the main thread takes: a little over half, since the
  * worker starts ~50 ms later and warms its filters up first.
  */
-const MAIN_SHARE = 0.54;
+const MAIN_SHARE = 0.57;
 const READ_BLOCK_BYTES = 1 << 20;
 const TASK = 'tuckline-detection-tail';
 
@@ -54,6 +57,8 @@ export interface TailJob {
   hopSamples: number;
   fitSamples: number;
   windowSamples: number;
+  /** Half-width of the threshold's moving median, frames (shared/dsp/onsets.ts medianRadiusFrames). */
+  medianRadius: number;
 }
 
 export interface TailResult {
@@ -63,6 +68,9 @@ export interface TailResult {
   riseDb: Float32Array;
   energy: Float64Array;
   innovation: Float64Array;
+  /** The moving median from frame `medianFrom` (a grid centre whose window lies in the tail) to the end. */
+  median: Float32Array;
+  medianFrom: number;
 }
 
 /** Where the song is split: frame S on the grid factor·hop·ONSET_BLOCK_FRAMES a little past the middle; null when shorter than `minSec` or too short to split. */
@@ -80,16 +88,6 @@ export function splitPlan(layout: WavLayout, factor: number, hopSamples: number,
 /** Whether this module runs from TypeScript sources (tsx, the tests) rather than the built command line. */
 function fromSources(): boolean {
   return import.meta.url.endsWith('.ts');
-}
-
-/**
- * Whether splitting pays by default: a second core, and built code (the
- * command line's bundle). From sources a worker spends ~0.35 s compiling
- * TypeScript, about what the split saves on a 5-minute song, so the server
- * (run through tsx) detects on one thread unless told otherwise.
- */
-export function canSplit(): boolean {
-  return availableParallelism() >= 2 && !fromSources();
 }
 
 /**
@@ -176,7 +174,10 @@ export function analyseTail(job: TailJob): TailResult {
     innovation: new Float64Array(count),
   };
   predictionOnsetFrames(x, xStart, totalSamples, job.hopSamples, job.fitSamples, job.windowSamples, frameFrom, totalFrames, odf, frameFrom);
-  return { band: x.slice((job.from - job.warmFrom) / factor), riseDb: odf.riseDb, energy: odf.energy, innovation: odf.innovation };
+  const medianFrom = Math.min(totalFrames, Math.ceil((frameFrom + job.medianRadius) / MEDIAN_STRIDE) * MEDIAN_STRIDE);
+  const median = new Float32Array(totalFrames - medianFrom);
+  movingMedianInto(odf.riseDb, frameFrom, totalFrames, job.medianRadius, MEDIAN_STRIDE, medianFrom, totalFrames, median, medianFrom);
+  return { band: x.slice((job.from - job.warmFrom) / factor), riseDb: odf.riseDb, energy: odf.energy, innovation: odf.innovation, median, medianFrom };
 }
 
 /** The second phase: refine candidates [from, end) of the song's list on the worker (previousEnd 0; see independentFrom). */
@@ -268,8 +269,13 @@ export function startTailWorker(job: TailJob): TailWorker {
     tail,
     done,
     async refine(request) {
-      await tail;
-      if (!dead && worker) worker.postMessage(request);
+      // Posted before the first await: the caller goes on refining its own
+      // half synchronously, and a post queued behind an await would wait for it.
+      if (!dead && worker && done.tail) worker.postMessage(request);
+      else {
+        await tail;
+        if (!dead && worker) worker.postMessage(request);
+      }
       const m = await next('refined');
       void worker?.terminate();
       if (m && m.kind === 'refined') {
@@ -291,7 +297,7 @@ if (!isMainThread && (workerData as { task?: string } | null)?.task === TASK && 
   const job = (workerData as { job: TailJob }).job;
   const result = analyseTail(job);
   const message: WorkerMessage = { kind: 'tail', result };
-  port.postMessage(message, [result.band.buffer, result.riseDb.buffer, result.energy.buffer, result.innovation.buffer] as ArrayBuffer[]);
+  port.postMessage(message, [result.band.buffer, result.riseDb.buffer, result.energy.buffer, result.innovation.buffer, result.median.buffer] as ArrayBuffer[]);
   port.once('message', (request: RefineRequest) => {
     const reply: WorkerMessage = { kind: 'refined', kept: refineTail(job, request) };
     port.postMessage(reply);

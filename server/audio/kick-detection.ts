@@ -3,9 +3,10 @@ import type { DetectionOptions, Hit, MidiKickOptions } from '../../shared/schema
 import { withDetectionDefaults } from '../../shared/schemas/hit-defaults';
 import { detectOnsetsWithLowBand } from '../../shared/dsp/onsets';
 import { createLowBandBuilder, finishLowBand, lowBandLength, pushLowBand, type LowBandBuilder } from '../../shared/dsp/low-band';
-import { findCandidates, finishHits, independentFrom, onsetGeometry, refineCandidates, type Candidate } from '../../shared/dsp/onsets';
-import { ONSET_BLOCK_FRAMES, predictionOnsetFrames, type PredictionOnsetFunction } from '../../shared/dsp/onset-function';
-import { canSplit, decodeRangeSync, fillWindows, splitPlan, startTailWorker } from './detection-split';
+import { findCandidates, finishHits, independentFrom, medianRadiusFrames, onsetGeometry, refineCandidates, type Candidate } from '../../shared/dsp/onsets';
+import { MEDIAN_STRIDE, movingMedianInto } from '../../shared/dsp/peak-pick';
+import { ONSET_BLOCK_FRAMES, predictionOnsetFrames, predictionOnsetFunction, type PredictionOnsetFunction } from '../../shared/dsp/onset-function';
+import { decodeRangeSync, fillWindows, splitPlan, startTailWorker } from './detection-split';
 import { MidiFormatError, readMidiKicks } from '../../shared/formats/midi-read';
 import { sniffNonWav } from '../../shared/formats/wav-header';
 import { AudioInputError } from './audio-errors';
@@ -27,13 +28,13 @@ export interface DetectKickOptions {
   /** WAV decoding path (server/audio/wav-file.ts); 'direct' unless told. */
   decoder?: MonoDecoder;
   /**
-   * 'auto' (default): songs of 40 s and longer are analysed on two threads
-   * when the machine has two cores and this runs as built code, the command
-   * line (server/audio/detection-split.ts canSplit); 1: one thread; 2: two
-   * threads wherever the song is long enough to split (~17 s at 48 kHz).
-   * The hits are the same.
+   * 1 (default): one thread. 2: the song is split between this thread and a
+   * worker (server/audio/detection-split.ts) when it is long enough (~17 s
+   * at 48 kHz); the hits are the same. On this project's 2-vCPU machine the
+   * second thread did not pay (a 5-minute stem: 0.76–0.87 s against
+   * 0.71–0.82 s on one, docs/engine.md), so it is not the default.
    */
-  threads?: 'auto' | 1 | 2;
+  threads?: 1 | 2;
 }
 
 /** MIDI files above this are refused before reading (an SMF of a song is kilobytes). */
@@ -70,16 +71,29 @@ export async function detectKickFile(path: string, opts: DetectKickOptions = {})
     const { frames, sampleRate } = wav.info;
     const band = createLowBandBuilder(sampleRate, frames, detection.lowBandHz);
     const decoder = opts.decoder ?? 'direct';
-    const threads = opts.threads ?? 'auto';
+    const threads = opts.threads ?? 1;
     const geometry = onsetGeometry(band.rateHz);
-    const plan = decoder === 'direct' && threads !== 1 && (threads === 2 || canSplit()) ? splitPlan(wav.layout, band.factor, geometry.hopSamples, threads === 2 ? 0 : undefined) : null;
-    if (!plan) {
+    const plan = decoder === 'direct' && threads === 2 ? splitPlan(wav.layout, band.factor, geometry.hopSamples, 0) : null;
+    if (plan) return { source: 'audio', sampleRate, durationSec: wav.info.durationSec, hits: await detectOnTwoThreads(path, wav, band, geometry, plan, detection) };
+    if (decoder === 'wav-decoder') {
+      // The reference path: every block through wav-decoder into a full mono mixdown.
       const mono = new Float32Array(frames);
       await decodeMonoInto(wav, mono, decoder, (first, n) => pushLowBand(band, mono.subarray(first, first + n)));
       const hits = detectOnsetsWithLowBand(mono, finishLowBand(band), sampleRate, detection);
       return { source: 'audio', sampleRate, durationSec: wav.info.durationSec, hits };
     }
-    return { source: 'audio', sampleRate, durationSec: wav.info.durationSec, hits: await detectOnTwoThreads(path, wav, band, geometry, plan, detection) };
+    // One thread, the same steps as the two-thread path: the low band while
+    // decoding (synchronous positioned reads), then the full-rate signal only
+    // around the candidates. Gives what detectOnsets gives on the whole
+    // mixdown (test/reference/onsets.test.ts), without holding it.
+    decodeRangeSync(path, wav.layout, 0, frames, band);
+    const lowBand = finishLowBand(band);
+    const odf = predictionOnsetFunction(lowBand.samples, geometry.hopSamples, geometry.fitSamples, geometry.windowSamples);
+    const candidates = findCandidates(lowBand, odf, detection);
+    const mono = new Float32Array(frames);
+    fillWindows(path, wav.layout, mono, candidates, 0, candidates.length);
+    const kept = refineCandidates(mono, lowBand, candidates, 0, candidates.length, 0, sampleRate, detection);
+    return { source: 'audio', sampleRate, durationSec: wav.info.durationSec, hits: finishHits(kept, lowBand, sampleRate, detection) };
   } finally {
     await wav.close();
   }
@@ -100,7 +114,8 @@ async function detectOnTwoThreads(
   detection: DetectionOptions,
 ): Promise<Hit[]> {
   const { frames, sampleRate } = wav.info;
-  const helper = startTailWorker({ path, layout: wav.layout, ...plan, bandHz: detection.lowBandHz, ...geometry });
+  const medianRadius = medianRadiusFrames(band.rateHz, geometry.hopSamples);
+  const helper = startTailWorker({ path, layout: wav.layout, ...plan, bandHz: detection.lowBandHz, ...geometry, medianRadius });
   helper.tail.catch(() => undefined); // awaited below; a failure meanwhile must not go unhandled
   try {
     decodeRangeSync(path, wav.layout, 0, plan.from, band);
@@ -112,6 +127,10 @@ async function detectOnTwoThreads(
     // Every block but the last before the split reads only this thread's samples.
     const early = Math.max(0, headFrames - ONSET_BLOCK_FRAMES);
     predictionOnsetFrames(band.out, 0, total, hop, geometry.fitSamples, geometry.windowSamples, 0, early, odf, 0);
+    // The threshold's moving median: the grid centres whose window ends before `early` now, the worker's from its result, the rest after the join.
+    const median = new Float32Array(totalFrames);
+    const preTo = early - medianRadius;
+    movingMedianInto(odf.riseDb, 0, totalFrames, medianRadius, MEDIAN_STRIDE, 0, preTo, median, 0);
     const rest = await helper.tail;
     band.out.set(rest.band, band.written);
     band.written += rest.band.length;
@@ -120,8 +139,10 @@ async function detectOnTwoThreads(
     odf.riseDb.set(rest.riseDb, headFrames);
     odf.energy.set(rest.energy, headFrames);
     odf.innovation.set(rest.innovation, headFrames);
+    movingMedianInto(odf.riseDb, 0, totalFrames, medianRadius, MEDIAN_STRIDE, preTo, rest.medianFrom, median, 0);
+    median.set(rest.median, rest.medianFrom);
     const lowBand = finishLowBand(band);
-    const candidates = findCandidates(lowBand, odf, detection);
+    const candidates = findCandidates(lowBand, odf, detection, undefined, median);
     const cut = refineSplit(candidates, sampleRate, detection) ?? candidates.length;
     const second = cut < candidates.length ? helper.refine({ candidates, from: cut, band: lowBand, opts: detection }) : Promise.resolve([]);
     if (cut === candidates.length) helper.close();

@@ -15,12 +15,11 @@ Commands:
 Run "tuckline <command> --help" for a command's options.
 `;
 
-const DETECT_USAGE = `Usage: tuckline detect <kick.wav|kick.mid> [--kind audio|midi] [--threads auto|1|2]
+const DETECT_USAGE = `Usage: tuckline detect <kick.wav|kick.mid> [--kind audio|midi] [--threads 1|2]
 
 Prints {"source":"audio"|"midi","sampleRate":48000|null,"durationSec":…,"hits":[{"timeSec":…,"strength":…},…]}
   --kind audio|midi   Force the kind of kick source (default: sniffed from the file)
-  --threads auto|1|2  Threads for a WAV kick (default auto: two for songs of 40 s and more
-                      on a machine with two cores); the hits are the same either way
+  --threads 1|2       Threads for a WAV kick (default 1); the hits are the same either way
 `;
 
 async function detect(argv: string[], out: (s: string) => void): Promise<void> {
@@ -29,9 +28,9 @@ async function detect(argv: string[], out: (s: string) => void): Promise<void> {
   if (positional.length !== 1) throw new UsageError('detect takes one kick file (tuckline detect --help)');
   const kind = flags.kind;
   if (kind !== undefined && kind !== 'audio' && kind !== 'midi') throw new UsageError('--kind must be audio or midi');
-  const threadsFlag = flags.threads ?? 'auto';
-  if (threadsFlag !== 'auto' && threadsFlag !== '1' && threadsFlag !== '2') throw new UsageError('--threads must be auto, 1 or 2');
-  const threads = threadsFlag === 'auto' ? 'auto' : threadsFlag === '1' ? 1 : 2;
+  const threadsFlag = flags.threads ?? '1';
+  if (threadsFlag !== '1' && threadsFlag !== '2') throw new UsageError('--threads must be 1 or 2');
+  const threads = threadsFlag === '1' ? 1 : 2;
   const result = await detectKickFile(userPath(positional[0]), { kind, threads });
   const json = {
     source: result.source,

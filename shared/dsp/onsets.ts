@@ -2,7 +2,7 @@ import type { DetectionOptions, Hit } from '../schemas/hit';
 import { withDetectionDefaults } from '../schemas/hit-defaults';
 import { lowBandOf, type LowBand } from './low-band';
 import { predictionOnsetFunction, type PredictionOnsetFunction } from './onset-function';
-import { pickPeaks } from './peak-pick';
+import { movingMedian, pickPeaks } from './peak-pick';
 import { arAicChangePoint, REFINE_PAD_SEC, refineOnsetSample } from './onset-refine';
 import { energyJumpDb, NEW_HIGH_WINDOW_SEC, newHighBandDb, sustainDb } from './hit-evidence';
 
@@ -181,16 +181,30 @@ export interface RefinedOnset {
   rise: number;
 }
 
+/** Half-width of the threshold's moving median, onset-function frames. */
+export function medianRadiusFrames(rateHz: number, hopSamples: number, tuning: DetectionTuning = DETECTION_TUNING): number {
+  return Math.round(tuning.medianRadiusSec / (hopSamples / rateHz));
+}
+
 /**
  * Step 3: the coarse peaks of the onset function whose new low-band energy
  * (prediction error) clears the floor set by a typical loud hit's.
+ * `median`: movingMedian of odf.riseDb over medianRadiusFrames, when
+ * already computed (two threads share it).
  */
-export function findCandidates(band: LowBand, odf: PredictionOnsetFunction, opts: DetectionOptions, tuning: DetectionTuning = DETECTION_TUNING): Candidate[] {
+export function findCandidates(
+  band: LowBand,
+  odf: PredictionOnsetFunction,
+  opts: DetectionOptions,
+  tuning: DetectionTuning = DETECTION_TUNING,
+  median?: Float32Array,
+): Candidate[] {
   const t = tuning;
   const thresholds = detectionThresholds(opts.sensitivity);
   const hop = odf.hopSamples;
   const hopSec = hop / band.rateHz;
-  const peaks = pickPeaks(odf.riseDb, thresholds.minRiseDb, t.medianWeight, Math.round(t.medianRadiusSec / hopSec), Math.max(1, Math.round(t.peakRadiusSec / hopSec)));
+  const radius = medianRadiusFrames(band.rateHz, hop, tuning);
+  const peaks = pickPeaks(odf.riseDb, thresholds.minRiseDb, t.medianWeight, radius, Math.max(1, Math.round(t.peakRadiusSec / hopSec)), median ?? movingMedian(odf.riseDb, radius));
   if (peaks.length === 0) return [];
 
   const spaced = mergeClose(peaks, Math.max(0, (opts.minGapMs / 1000 - t.coarseGapToleranceSec) / hopSec), (f) => odf.riseDb[f]!);

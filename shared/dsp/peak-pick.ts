@@ -10,19 +10,44 @@
  * coarse grid keeps the cost at N/stride small sorts).
  * @returns one median per frame, same units as `values`
  */
-export function movingMedian(values: Float32Array, radius: number, stride = 50): Float32Array {
+export function movingMedian(values: Float32Array, radius: number, stride = MEDIAN_STRIDE): Float32Array {
   const n = values.length;
   const out = new Float32Array(n);
+  movingMedianInto(values, 0, n, radius, stride, 0, n, out, 0);
+  return out;
+}
+
+/** Grid of the moving median, frames. */
+export const MEDIAN_STRIDE = 50;
+
+/**
+ * Part of movingMedian: the medians of the grid centres in [centreFrom,
+ * centreTo), each held over its `stride` frames, written to out[frame −
+ * outStart]. `values` may be a slice: values[0] is frame `valuesStart` of an
+ * onset function of `n` frames, and must cover each centre's window. Any
+ * partition of the centres gives movingMedian's values exactly (each median
+ * is computed on its own), so two threads can share the work.
+ */
+export function movingMedianInto(
+  values: Float32Array,
+  valuesStart: number,
+  n: number,
+  radius: number,
+  stride: number,
+  centreFrom: number,
+  centreTo: number,
+  out: Float32Array,
+  outStart: number,
+): void {
   const scratch = new Float64Array(2 * radius + 1);
-  for (let centre = 0; centre < n; centre += stride) {
+  for (let centre = Math.ceil(centreFrom / stride) * stride; centre < Math.min(n, centreTo); centre += stride) {
     const lo = Math.max(0, centre - radius);
     const hi = Math.min(n, centre + radius + 1);
     const len = hi - lo;
-    for (let i = 0; i < len; i++) scratch[i] = values[lo + i]!;
+    for (let i = 0; i < len; i++) scratch[i] = values[lo - valuesStart + i]!;
     const median = selectKth(scratch, len, len >> 1);
-    out.fill(median, centre, Math.min(n, centre + stride));
+    out.fill(median, centre - outStart, Math.min(n, centre + stride) - outStart);
   }
-  return out;
 }
 
 /**
@@ -62,9 +87,16 @@ function selectKth(a: Float64Array, len: number, k: number): number {
  * @param lambda λ, weight of the moving median (dimensionless)
  * @param medianRadius half-width of the median window, frames
  * @param peakRadius half-width of the local-maximum window, frames
+ * @param median movingMedian(values, medianRadius), when already computed
  */
-export function pickPeaks(values: Float32Array, deltaFixed: number, lambda: number, medianRadius: number, peakRadius: number): number[] {
-  const median = movingMedian(values, medianRadius);
+export function pickPeaks(
+  values: Float32Array,
+  deltaFixed: number,
+  lambda: number,
+  medianRadius: number,
+  peakRadius: number,
+  median: Float32Array = movingMedian(values, medianRadius),
+): number[] {
   const peaks: number[] = [];
   const n = values.length;
   for (let i = 0; i < n; i++) {

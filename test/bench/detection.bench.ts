@@ -2,7 +2,7 @@
  * Kick-detection benchmark: the 5-minute 48 kHz stereo 24-bit kick stem
  * (test/reference/fixtures/long-stem.ts), analysed by Tuckline's CLI
  * (`npm run -s tuckline -- detect <file>`, and `node dist/cli/tuckline.mjs`
- * directly; two threads, server/audio/detection-split.ts) and by aubioonset (`-O energy` and `hfc -H 128`; REFERENCES.md
+ * directly, on one thread and on two, server/audio/detection-split.ts) and by aubioonset (`-O energy` and `hfc -H 128`; REFERENCES.md
  * "Onsets"). Wall time, CPU time and peak RSS come from `/usr/bin/time -v`
  * (GNU time: "Maximum resident set size" is the largest process of the tree). Accuracy is
  * MIREX-style F at ±5 ms and the median error (test/reference/onset-scoring.ts).
@@ -93,8 +93,10 @@ export async function benchDetection(): Promise<BenchSection> {
     const parse = (stdout: string): number[] => (JSON.parse(stdout) as { hits: { timeSec: number }[] }).hits.map((h) => h.timeSec);
     const direct = best(5, () => timed('node', [bundle, 'detect', stem.path]));
     rows.push({ name: 'tuckline detect (node dist/cli/tuckline.mjs): time', value: fmtSec(direct.wallSec), note: `CPU ${fmtSec(direct.cpuSec)}; peak RSS ${fmtMb(direct.peakRssMb)} (limit 500 MB); best of 5` });
+    const twoThreads = best(5, () => timed('node', [bundle, 'detect', stem.path, '--threads', '2']));
+    rows.push({ name: 'tuckline detect --threads 2 (node dist/cli/tuckline.mjs): time', value: fmtSec(twoThreads.wallSec), note: `CPU ${fmtSec(twoThreads.cpuSec)}; peak RSS ${fmtMb(twoThreads.peakRssMb)}; best of 5; same hits (test/reference/detection-split.test.ts)` });
     const viaNpm = best(5, () => timed('npm', ['run', '-s', 'tuckline', '--', 'detect', stem.path]));
-    rows.push({ name: 'tuckline detect (npm run -s tuckline -- detect): time', value: fmtSec(viaNpm.wallSec), note: `CPU ${fmtSec(viaNpm.cpuSec)} (npm included, two threads); peak RSS ${fmtMb(viaNpm.peakRssMb)} (largest process); best of 5` });
+    rows.push({ name: 'tuckline detect (npm run -s tuckline -- detect): time', value: fmtSec(viaNpm.wallSec), note: `CPU ${fmtSec(viaNpm.cpuSec)} (npm included); peak RSS ${fmtMb(viaNpm.peakRssMb)} (largest process); best of 5` });
     const npmAlone = best(5, () => timed('npm', ['run', '-s', 'tuckline', '--', '--help']));
     rows.push({ name: 'npm run -s tuckline -- --help (start-up alone)', value: fmtSec(npmAlone.wallSec), note: 'npm, the launcher and the bundle, no audio; best of 5' });
     rows.push({ name: 'ratio: npm run -s tuckline -- detect / aubioonset -O energy', value: (viaNpm.wallSec / aubioEnergySec).toFixed(2), note: 'budget ≤ 1.0 (same file, same run)' });

@@ -151,6 +151,7 @@ describe('tuckline CLI', () => {
       run('stamp', f('kick.wav'), '--shape', f('shape.json'), '--format', 'midi', '--cc', '300', '--out', f('x.mid')),
       run('stamp', f('kick.wav'), '--frobnicate', '--format', 'csv'),
       run('detect', f('kick.wav'), '--threads', '3'),
+      run('detect', f('kick.wav'), '--threads', 'auto'),
     ]);
     for (const r of cases) {
       expect(r.code).toBe(2);

@@ -4,7 +4,7 @@ import { analyseTail, fillWindows, splitPlan, startTailWorker } from '../../serv
 import { openWav, readWavMono } from '../../server/audio/wav-file';
 import { createLowBandBuilder, lowBandOf } from '../../shared/dsp/low-band';
 import { predictionOnsetFunction } from '../../shared/dsp/onset-function';
-import { findCandidates, onsetGeometry, refineCandidates } from '../../shared/dsp/onsets';
+import { findCandidates, medianRadiusFrames, onsetGeometry, refineCandidates } from '../../shared/dsp/onsets';
 import { withDetectionDefaults } from '../../shared/schemas/hit-defaults';
 import { ONSET_CASES } from './fixtures/onset-cases';
 import { LONG_STEM } from './fixtures/long-stem';
@@ -63,7 +63,7 @@ describe('kick detection on two threads', () => {
       const builder = createLowBandBuilder(wav.info.sampleRate, wav.info.frames, 120);
       const geometry = onsetGeometry(builder.rateHz);
       const plan = splitPlan(wav.layout, builder.factor, geometry.hopSamples)!;
-      const job = { path, layout: wav.layout, ...plan, bandHz: 120, ...geometry };
+      const job = { path, layout: wav.layout, ...plan, bandHz: 120, ...geometry, medianRadius: medianRadiusFrames(builder.rateHz, geometry.hopSamples) };
       const helper = startTailWorker(job);
       const fromWorker = await helper.tail;
       expect(helper.done.tail).toBe(true);
