@@ -44,6 +44,8 @@ export const SPLIT_MIN_SEC = 40;
  */
 const MAIN_SHARE = 0.57;
 const READ_BLOCK_BYTES = 1 << 20;
+/** Frames of the priming call in decodeRangeSync (even, and 4-byte aligned for every frame size). */
+const PRIME_FRAMES = 1024;
 const TASK = 'tuckline-detection-tail';
 
 /** What the worker computes: the song from frame `from` to the end. */
@@ -100,9 +102,23 @@ export function decodeRangeSync(path: string, layout: WavLayout, from: number, t
   const block = new Float32Array(Math.floor(READ_BLOCK_BYTES / layout.blockAlign));
   const fd = openSync(path, 'r');
   try {
+    let primed = false;
     for (const [offset, length] of wavDataBlocks(layout, READ_BLOCK_BYTES, from, to)) {
       readExactly(fd, bytes, length, offset);
-      const n = decodeMonoBlockInto(layout, bytes.subarray(0, length), block, 0);
+      let at = 0;
+      if (!primed) {
+        // The first 1024 frames on their own: the short call runs every path
+        // of the decoder and the filters once before the long one gets
+        // optimised mid-loop, which otherwise meets operations it has no type
+        // feedback for and falls back to the interpreter for the rest of a
+        // 1 MiB block, several times over. Same samples either way.
+        primed = true;
+        const head = Math.min(length, PRIME_FRAMES * layout.blockAlign);
+        const n = decodeMonoBlockInto(layout, bytes.subarray(0, head), block, 0);
+        pushLowBand(builder, block.subarray(0, n));
+        at = head;
+      }
+      const n = decodeMonoBlockInto(layout, bytes.subarray(at, length), block, 0);
       pushLowBand(builder, block.subarray(0, n));
     }
   } finally {

@@ -101,17 +101,16 @@ function onsetBlock(
   const dim = p + 1;
   const sums = new Float64Array(dim * dim);
   // Indexes below are of the whole low band; x[i − xStart] holds sample i.
-  const addTerm = (i: number, sign: number): void => {
-    if (i - p >= 0) addProducts(x, i - xStart, sums, sign);
-  };
   // The sums cover i in [max(first, windowEnd − fit), windowEnd), starting empty at `first`.
   const first = Math.max(0, frameFrom * hopSamples - fitSamples);
   let windowEnd = first;
   for (let f = frameFrom; f < frameTo; f++) {
     const s = f * hopSamples;
     while (windowEnd < s) {
-      addTerm(windowEnd, 1);
-      if (windowEnd - fitSamples >= first) addTerm(windowEnd - fitSamples, -1);
+      // No closure here: a fresh one per block made the optimised code deoptimise at every block.
+      if (windowEnd - p >= 0) addProducts(x, windowEnd - xStart, sums, 1);
+      const leaving = windowEnd - fitSamples;
+      if (leaving >= first && leaving - p >= 0) addProducts(x, leaving - xStart, sums, -1);
       windowEnd++;
     }
     const count = Math.max(0, Math.min(fitSamples, s - p));
