@@ -72,6 +72,63 @@ export function createLowBandBuilder(sampleRateHz: number, totalFrames: number, 
 
 /** Filters and decimates one block of the full-rate mono signal (linear) into the builder. */
 export function pushLowBand(builder: LowBandBuilder, block: Float32Array): void {
+  if (builder.preFactor === 2 && builder.antiAlias.length === 2 && Number.isNaN(builder.pending) && block.length % 2 === 0) {
+    const start = builder.written;
+    pushPairsFused(builder, block);
+    // The band filter out here, not inlined into the loop's function, whose optimised code it kept invalidating.
+    processCascadeInPlace(builder.band, builder.bandState, builder.out.subarray(start, builder.written));
+  } else pushLowBandInStages(builder, block);
+}
+
+/**
+ * pushLowBand for the common case (pairs, two anti-alias sections, nothing
+ * waiting, an even block) in one pass: pair mean, both biquads and the pick
+ * of every D-th sample per pair, only the picks stored (the caller runs the
+ * band filter on them). Each stage's result
+ * is rounded to float32 (Math.fround) exactly as storing it in the staged
+ * path's Float32Array does, so both give the same samples bit for bit
+ * (low-band.spec.ts); the two sections' recurrences interleave instead of
+ * running one after the other over the block.
+ */
+function pushPairsFused(builder: LowBandBuilder, block: Float32Array): void {
+  const d = builder.factor / 2;
+  const st = builder.antiAliasState;
+  const out = builder.out;
+  const cap = out.length;
+  const start = builder.written;
+  let written = start;
+  const s1 = builder.antiAlias[0]!;
+  const s2 = builder.antiAlias[1]!;
+  const p0 = s1.b0, p1 = s1.b1, p2 = s1.b2, q1 = s1.a1, q2 = s1.a2;
+  const r0 = s2.b0, r1 = s2.b1, r2 = s2.b2, u1 = s2.a1, u2 = s2.a2;
+  let z1 = st[0]!, z2 = st[1]!, w1 = st[2]!, w2 = st[3]!;
+  const pairs = block.length >> 1;
+  // Index (in pairs) of the next pair whose pre-decimated index is a multiple of D.
+  let next = (d - ((builder.consumed / 2) % d)) % d;
+  for (let k = 0; k < pairs; k++) {
+    const x = Math.fround(0.5 * (block[2 * k]! + block[2 * k + 1]!));
+    const y = p0 * x + z1;
+    z1 = p1 * x - q1 * y + z2;
+    z2 = p2 * x - q2 * y;
+    const yr = Math.fround(y);
+    const v = r0 * yr + w1;
+    w1 = r1 * yr - u1 * v + w2;
+    w2 = r2 * yr - u2 * v;
+    if (k === next) {
+      if (written < cap) out[written++] = v;
+      next += d;
+    }
+  }
+  st[0] = z1;
+  st[1] = z2;
+  st[2] = w1;
+  st[3] = w2;
+  builder.written = written;
+  builder.consumed += pairs * 2;
+}
+
+/** pushLowBand stage by stage, for any block; the reference the fused path is held to. */
+export function pushLowBandInStages(builder: LowBandBuilder, block: Float32Array): void {
   const pre = builder.preFactor;
   // Pre-decimation by 2 with a pair mean (a 2-tap boxcar: its null at fs/2
   // puts what folds onto the band ≥ 40 dB down), so the anti-alias biquads
