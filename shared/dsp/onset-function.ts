@@ -155,11 +155,21 @@ function onsetBlock(
     let after = 0;
     let sig = 0;
     const end = s + windowSamples < n ? s + windowSamples : n;
-    for (let i = (s < p ? p : s) - xStart, last = end - xStart; i < last; i++) {
-      const xi = x[i]!;
-      const e = xi - (a1 * x[i - 1]! + a2 * x[i - 2]! + a3 * x[i - 3]! + a4 * x[i - 4]!);
-      after += e * e;
-      sig += xi * xi;
+    // The four previous samples ride along in locals (one load per sample; same sums in the same order).
+    const i0 = (s < p ? p : s) - xStart;
+    const last = end - xStart;
+    if (i0 < last) {
+      let m1 = x[i0 - 1]!, m2 = x[i0 - 2]!, m3 = x[i0 - 3]!, m4 = x[i0 - 4]!;
+      for (let i = i0; i < last; i++) {
+        const xi = x[i]!;
+        const e = xi - (a1 * m1 + a2 * m2 + a3 * m3 + a4 * m4);
+        after += e * e;
+        sig += xi * xi;
+        m4 = m3;
+        m3 = m2;
+        m2 = m1;
+        m1 = xi;
+      }
     }
     const len = Math.max(1, end - s);
     after /= len;
