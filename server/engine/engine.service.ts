@@ -8,7 +8,7 @@ import { thinCurve, type ThinOptions } from '../../shared/dsp/curve-thin';
 import { sampleGainCurve } from '../../shared/dsp/gain';
 import { bassSilenceTest } from '../../shared/dsp/bass-gate';
 import { createBandSplitter } from '../../shared/dsp/crossover';
-import { writeBreakpointCsv } from '../../shared/formats/csv-write';
+import { writeBreakpointCsvBytes } from '../../shared/formats/csv-write';
 import { writeMidiCc, type MidiLane } from '../../shared/formats/midi-write';
 import { encodeWavSamples, wavHeader } from '../../shared/formats/wav-write';
 import type { BassActivity } from '../audio/bass-activity';
@@ -42,10 +42,10 @@ export function stampForLane(hits: readonly Hit[], lane: LaneStampInput, opts: S
   return stampHits(hits, l.shape, { durationSec: opts.durationSec, baseGainDb: l.baseGainDb, isBassSilent, rampToleranceDb: opts.rampToleranceDb });
 }
 
-/** Breakpoint CSV of a curve, thinned first (0.5 dB in dB and in amplitude above −40 dB, see curve-thin.ts). */
-export function exportCsv(curve: GainCurve, opts: CsvExportOptionsInput & { thin?: ThinOptions } = {}): string {
+/** Breakpoint CSV of a curve (the file's bytes), thinned first (0.5 dB in dB and in amplitude above −40 dB, see curve-thin.ts). */
+export function exportCsv(curve: GainCurve, opts: CsvExportOptionsInput & { thin?: ThinOptions } = {}): Uint8Array {
   const { thin, ...csv } = opts;
-  return writeBreakpointCsv(thinCurve(curve, thin), csv);
+  return writeBreakpointCsvBytes(thinCurve(curve, thin), csv);
 }
 
 /** MIDI CC file (SMF type 1) of one or more lanes; `hits` feed the optional marker track. */

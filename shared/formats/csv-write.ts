@@ -16,6 +16,11 @@ export const CSV_COLUMNS = ['time_s', 'gain_db', 'sample', 'bar_beat_tick', 'gai
  * Numbers are rounded half away from zero at their last decimal.
  */
 export function writeBreakpointCsv(curve: GainCurve, options: CsvExportOptionsInput = {}): string {
+  return asciiToString(writeBreakpointCsvBytes(curve, options));
+}
+
+/** writeBreakpointCsv as the file's bytes (ASCII, so UTF-8 too): what a file or a download needs, without a string between. */
+export function writeBreakpointCsvBytes(curve: GainCurve, options: CsvExportOptionsInput = {}): Uint8Array {
   const o = csvExportOptionsSchema.parse(options);
   const [num, den] = o.timeSignature;
   const ticksPerBeat = (o.ppq * 4) / den;
@@ -93,7 +98,7 @@ export function writeBreakpointCsv(curve: GainCurve, options: CsvExportOptionsIn
     buf[at++] = 13;
     buf[at++] = 10;
   }
-  return asciiToString(buf.subarray(0, at));
+  return buf.subarray(0, at);
 }
 
 const HEADER = CSV_COLUMNS.join(',');

@@ -6,7 +6,7 @@
  */
 import { stampHits } from '../../shared/dsp/stamp';
 import { thinCurve } from '../../shared/dsp/curve-thin';
-import { writeBreakpointCsv } from '../../shared/formats/csv-write';
+import { writeBreakpointCsvBytes } from '../../shared/formats/csv-write';
 import { writeMidiCc } from '../../shared/formats/midi-write';
 import { tuckShapeSchema } from '../../shared/schemas/tuck-shape';
 import type { Hit } from '../../shared/schemas/hit';
@@ -70,7 +70,7 @@ export async function benchStamp(): Promise<BenchSection> {
   // thinned curve (exportCsv), the MIDI file the curve as stamped (exportMidi).
   const full = time(40, 8, () => {
     const { curve } = stampHits(hits2000, shape, { durationSec: song2000, baseGainDb: -2 });
-    const csv = writeBreakpointCsv(thinCurve(curve), { sampleRate: 48000, bpm: 128 });
+    const csv = writeBreakpointCsvBytes(thinCurve(curve), { sampleRate: 48000, bpm: 128 });
     const midi = writeMidiCc([{ name: 'Bass', curve }], { bpm: 128 });
     points = curve.points.length;
     csvBytes = csv.length;
@@ -80,7 +80,7 @@ export async function benchStamp(): Promise<BenchSection> {
   const stampOnly = time(40, 8, () => stampHits(hits2000, shape, { durationSec: song2000, baseGainDb: -2 }));
   const thinOnly = time(40, 8, () => (thinPoints = thinCurve(curve).points.length));
   const thin = thinCurve(curve);
-  const csvOnly = time(40, 8, () => writeBreakpointCsv(thin, { sampleRate: 48000, bpm: 128 }));
+  const csvOnly = time(40, 8, () => writeBreakpointCsvBytes(thin, { sampleRate: 48000, bpm: 128 }));
   const midiOnly = time(40, 8, () => writeMidiCc([{ name: 'Bass', curve }], { bpm: 128 }));
   // Re-stamp while dragging: each run moves the end of the hold by 0.5 ms, so no template is reused.
   const drag = time(100, 20, (i) => {

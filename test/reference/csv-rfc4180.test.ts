@@ -60,7 +60,7 @@ describe('breakpoint CSV, RFC 4180', () => {
   const hits: Hit[] = [0.5, 1.0, 4.75, 4.9].map((timeSec) => ({ timeSec, strength: 1, enabled: true }));
   const shape = { points: [{ tMs: -3, gainDb: 0 }, { tMs: 0, gainDb: -40 }, { tMs: 50, gainDb: -40 }, { tMs: 150, gainDb: 0 }], slopeGuardMs: 5 };
   const { curve } = stampForLane(hits, { shape, baseGainDb: -1.5 }, { durationSec: 6 });
-  const csv = exportCsv(curve, { sampleRate: 44100, bpm: 120, timeSignature: [4, 4], ppq: 960 });
+  const csv = new TextDecoder().decode(exportCsv(curve, { sampleRate: 44100, bpm: 120, timeSignature: [4, 4], ppq: 960 }));
   const rows = parseRfc4180(csv);
 
   it('has the header time_s,gain_db,sample,bar_beat_tick,gain_linear, CRLF ends and no comment lines', () => {
