@@ -68,7 +68,6 @@ export interface TailResult {
   band: Float32Array;
   /** Onset-function frames from from / (factor·hop) to the end. */
   riseDb: Float32Array;
-  energy: Float64Array;
   innovation: Float64Array;
   /** The moving median from frame `medianFrom` (a grid centre whose window lies in the tail) to the end. */
   median: Float32Array;
@@ -186,14 +185,13 @@ export function analyseTail(job: TailJob): TailResult {
   const odf: PredictionOnsetFunction = {
     hopSamples: job.hopSamples,
     riseDb: new Float32Array(count),
-    energy: new Float64Array(count),
-    innovation: new Float64Array(count),
+        innovation: new Float64Array(count),
   };
   predictionOnsetFrames(x, xStart, totalSamples, job.hopSamples, job.fitSamples, job.windowSamples, frameFrom, totalFrames, odf, frameFrom);
   const medianFrom = Math.min(totalFrames, Math.ceil((frameFrom + job.medianRadius) / MEDIAN_STRIDE) * MEDIAN_STRIDE);
   const median = new Float32Array(totalFrames - medianFrom);
   movingMedianInto(odf.riseDb, frameFrom, totalFrames, job.medianRadius, MEDIAN_STRIDE, medianFrom, totalFrames, median, medianFrom);
-  return { band: x.slice((job.from - job.warmFrom) / factor), riseDb: odf.riseDb, energy: odf.energy, innovation: odf.innovation, median, medianFrom };
+  return { band: x.slice((job.from - job.warmFrom) / factor), riseDb: odf.riseDb, innovation: odf.innovation, median, medianFrom };
 }
 
 /** The second phase: refine candidates [from, end) of the song's list on the worker (previousEnd 0; see independentFrom). */
@@ -313,7 +311,7 @@ if (!isMainThread && (workerData as { task?: string } | null)?.task === TASK && 
   const job = (workerData as { job: TailJob }).job;
   const result = analyseTail(job);
   const message: WorkerMessage = { kind: 'tail', result };
-  port.postMessage(message, [result.band.buffer, result.riseDb.buffer, result.energy.buffer, result.innovation.buffer, result.median.buffer] as ArrayBuffer[]);
+  port.postMessage(message, [result.band.buffer, result.riseDb.buffer, result.innovation.buffer, result.median.buffer] as ArrayBuffer[]);
   port.once('message', (request: RefineRequest) => {
     const reply: WorkerMessage = { kind: 'refined', kept: refineTail(job, request) };
     port.postMessage(reply);

@@ -122,7 +122,7 @@ async function detectOnTwoThreads(
     const total = lowBandLength(band, frames);
     const hop = geometry.hopSamples;
     const totalFrames = Math.ceil(total / hop);
-    const odf: PredictionOnsetFunction = { hopSamples: hop, riseDb: new Float32Array(totalFrames), energy: new Float64Array(totalFrames), innovation: new Float64Array(totalFrames) };
+    const odf: PredictionOnsetFunction = { hopSamples: hop, riseDb: new Float32Array(totalFrames), innovation: new Float64Array(totalFrames) };
     const headFrames = plan.from / (band.factor * hop);
     // Every block but the last before the split reads only this thread's samples.
     const early = Math.max(0, headFrames - ONSET_BLOCK_FRAMES);
@@ -137,7 +137,6 @@ async function detectOnTwoThreads(
     if (band.written !== total) throw new Error(`detection split: low band of ${band.written} samples, expected ${total}`);
     predictionOnsetFrames(band.out, 0, total, hop, geometry.fitSamples, geometry.windowSamples, early, headFrames, odf, 0);
     odf.riseDb.set(rest.riseDb, headFrames);
-    odf.energy.set(rest.energy, headFrames);
     odf.innovation.set(rest.innovation, headFrames);
     movingMedianInto(odf.riseDb, 0, totalFrames, medianRadius, MEDIAN_STRIDE, preTo, rest.medianFrom, median, 0);
     median.set(rest.median, rest.medianFrom);

@@ -14,8 +14,6 @@ export interface PredictionOnsetFunction {
   hopSamples: number;
   /** riseDb[n] for the frame starting at sample n·hop: max(0, 10·log10((E_after + ε) / (E_before + ε))), dB. */
   riseDb: Float32Array;
-  /** energy[n]: mean x² of the low band over the scoring window after frame n (linear, full scale²). */
-  energy: Float64Array;
   /** innovation[n]: E_after, the mean squared prediction error over the scoring window (linear, full scale²). */
   innovation: Float64Array;
 }
@@ -47,7 +45,7 @@ export const ONSET_BLOCK_FRAMES = 8192;
  */
 export function predictionOnsetFunction(x: Float32Array, hopSamples: number, fitSamples: number, windowSamples: number): PredictionOnsetFunction {
   const frames = Math.ceil(x.length / hopSamples);
-  const out: PredictionOnsetFunction = { hopSamples, riseDb: new Float32Array(frames), energy: new Float64Array(frames), innovation: new Float64Array(frames) };
+  const out: PredictionOnsetFunction = { hopSamples, riseDb: new Float32Array(frames), innovation: new Float64Array(frames) };
   predictionOnsetFrames(x, 0, x.length, hopSamples, fitSamples, windowSamples, 0, frames, out, 0);
   return out;
 }
@@ -92,7 +90,7 @@ function onsetBlock(
   out: PredictionOnsetFunction,
   outFrameOffset: number,
 ): void {
-  const { riseDb, energy, innovation } = out;
+  const { riseDb, innovation } = out;
 
   const p = ORDER; // the unrolled loops below assume 4
   const epsilon = 1e-8;
@@ -153,7 +151,6 @@ function onsetBlock(
     const err = sums[0]! - (a1 * r1 + a2 * r2 + a3 * r3 + a4 * r4) - ridge * (a1 * a1 + a2 * a2 + a3 * a3 + a4 * a4);
     const before = count > 0 ? Math.max(0, err) / count : 0;
     let after = 0;
-    let sig = 0;
     const end = s + windowSamples < n ? s + windowSamples : n;
     // The four previous samples ride along in locals (one load per sample; same sums in the same order).
     const i0 = (s < p ? p : s) - xStart;
@@ -164,7 +161,6 @@ function onsetBlock(
         const xi = x[i]!;
         const e = xi - (a1 * m1 + a2 * m2 + a3 * m3 + a4 * m4);
         after += e * e;
-        sig += xi * xi;
         m4 = m3;
         m3 = m2;
         m2 = m1;
@@ -174,7 +170,6 @@ function onsetBlock(
     const len = Math.max(1, end - s);
     after /= len;
     const o = f - outFrameOffset;
-    energy[o] = sig / len;
     innovation[o] = after;
     const r = 10 * Math.log10((after + epsilon) / (before + epsilon));
     riseDb[o] = r > 0 ? r : 0;
