@@ -26,7 +26,9 @@ import { AudioInputError } from './audio-errors';
  * Neither thread keeps the full-rate mono mixdown while decoding (writing
  * 58 MB of fresh memory was a tenth of the time): refinement reads only a
  * window around each candidate, so each thread decodes those windows again
- * into its own, mostly untouched, full-length array (fillWindows).
+ * into its own, mostly untouched, full-length array (fillWindows). The
+ * one-thread path (server/audio/kick-detection.ts) reads the same way, with
+ * decodeRangeSync and fillWindows from here.
  * The equality with the single-thread path is a test
  * (test/reference/detection-split.test.ts). Opt-in (detectKickFile's
  * `threads: 2`, the CLI's `--threads 2`): on this project's 2-vCPU machine
@@ -40,7 +42,7 @@ const WARM_UP_SEC = 1;
 export const SPLIT_MIN_SEC = 40;
 /**
  * Share of the song the main thread takes: a little over half, since the
- * worker starts ~50 ms later and warms its filters up first.
+ * worker starts ~100 ms later and warms its filters up first.
  */
 const MAIN_SHARE = 0.57;
 const READ_BLOCK_BYTES = 1 << 20;
