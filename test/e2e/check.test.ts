@@ -72,6 +72,8 @@ describe('Check step in Chromium', () => {
     await page.getByText('Copper Rain').first().click();
     await page.getByRole('button', { name: 'Delete song' }).click();
     await page.getByRole('button', { name: 'Cancel' }).click();
+    // Until the first dialog has finished closing, its backdrop takes the next click.
+    await page.getByRole('dialog').waitFor({ state: 'detached' });
     expect(await page.locator('h1').textContent()).toContain('Copper Rain');
     await page.getByRole('button', { name: 'Delete song' }).click();
     await page.getByRole('dialog').getByRole('button', { name: 'Delete song' }).click();
