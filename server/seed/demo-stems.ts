@@ -1,4 +1,6 @@
 import { encodeWav } from '../../shared/formats/wav-write';
+// A seeded PRNG so the stems are the same on every machine.
+import { mulberry32 } from '../../shared/dsp/prng';
 
 /**
  * Deterministic synthetic demo stems: a kick and an 808-style sub that lands
@@ -34,17 +36,6 @@ export const SUB_LEVEL = 0.5;
 /** Trap-style kick pattern on 16ths: 1, the "and" of 2, 3 — common practice, no source. */
 export const trapPattern = [0, 6, 10];
 
-/** A small seeded PRNG (mulberry32) so the stems are the same on every machine. */
-function mulberry32(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 export function renderDemoStems(options: DemoStemOptions): DemoStems {
   const sampleRate = options.sampleRate ?? 48000;

@@ -5,15 +5,7 @@ import type { GainCurve } from './gain-curve';
 import { gainDbAt } from './gain';
 import { thinCurve } from './curve-thin';
 import { stampHits } from './stamp';
-
-function rng(seed: number) {
-  return () => {
-    seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { mulberry32 as rng } from './prng';
 
 /** The thinned curve read with straight lines in amplitude, as some DAWs do, dB. */
 function ampInterpDb(curve: GainCurve, t: number): number {

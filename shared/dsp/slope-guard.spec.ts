@@ -2,16 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { tuckShapeSchema, type TuckShape } from '../schemas/tuck-shape';
 import { buildTuckTemplate, guardShape, minEaseMs, slopeCaps, easeDb } from './slope-guard';
 import { sampleGainCurve } from './gain';
-
-/** mulberry32: a small seeded PRNG so property tests replay (common practice, no source). */
-function rng(seed: number) {
-  return () => {
-    seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { mulberry32 as rng } from './prng';
 
 /** A random drawn shape that spans the hit (a point before 0 and one after it). */
 function randomShape(r: () => number): { shape: TuckShape; baseGainDb: number } {

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import type { GainCurve, GainPoint } from '../dsp/gain-curve';
 import { formatBarBeatTick, secondsToBarBeatTick } from './bar-beat';
 import { CSV_COLUMNS, writeBreakpointCsv } from './csv-write';
+import { mulberry32 as rng } from '../dsp/prng';
 
 describe('writeBreakpointCsv', () => {
   const curve = { points: [{ timeSec: 0, gainDb: 0 }, { timeSec: 4.75, gainDb: -6.0206 }, { timeSec: 4.7500001, gainDb: -7 }, { timeSec: 5, gainDb: -40 }] };
@@ -19,16 +20,6 @@ describe('writeBreakpointCsv', () => {
     expect(rows[2]).toBe('5.000000,-40.000,240000,3.3.0,0.010000');
   });
 });
-
-/** mulberry32: a small seeded PRNG so property tests replay (common practice, no source). */
-function rng(seed: number) {
-  return () => {
-    seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** An integer count of 10^−d as a decimal, by string slicing (no shared code with the writer). */
 function fixed(scaled: number, d: number): string {

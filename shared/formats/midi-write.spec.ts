@@ -3,6 +3,7 @@ import { parseMidi } from 'midi-file';
 import type { GainCurve, GainPoint } from '../dsp/gain-curve';
 import { gainDbAt } from '../dsp/gain';
 import { cc14ToGainDb, cc7ToGainDb, ccStream, gainDbToCc14, gainDbToCc7, writeMidiCc } from './midi-write';
+import { mulberry32 as rng } from '../dsp/prng';
 
 describe('MIDI CC mapping', () => {
   it('uses the GM2 / MIDI-CI default curve (REFERENCES.md "MIDI": 127→0, 100→−4.15, 96→−4.86, 64→−11.90, 32→−23.95, 16→−35.99, 1→−84.15 dB)', () => {
@@ -48,16 +49,6 @@ describe('writeMidiCc', () => {
     expect(s[s.length - 1].value).toBe(127);
   });
 });
-
-/** mulberry32: a small seeded PRNG so property tests replay (common practice, no source). */
-function rng(seed: number) {
-  return () => {
-    seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 describe('writeMidiCc against a reference sampling', () => {
   it('holds round(F·10^(G/40)) of the curve at every tick, 0 at the floor, read back by midi-file (property: random curves, tempos, PPQs, 7 and 14 bits)', () => {

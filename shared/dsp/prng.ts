@@ -1,0 +1,16 @@
+/**
+ * Mulberry32, a 32-bit seeded pseudo-random generator (Tommy Ettinger's
+ * public-domain generator; from memory): uniform numbers in [0, 1), the same
+ * sequence for the same seed on every machine. For reproducible synthetic
+ * signals (the demo stems, test fixtures, property tests), never for secrets.
+ */
+export function mulberry32(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
