@@ -33,17 +33,23 @@ export async function buildCli({ quiet = false } = {}) {
     banner: { js: "import { createRequire as __tucklineCreateRequire } from 'node:module'; const require = __tucklineCreateRequire(import.meta.url);" },
   });
   mkdirSync(chunkDir, { recursive: true });
+  // Every file is written under a temporary name and renamed into place, so
+  // a CLI started meanwhile (or another build running at the same time, as
+  // when several commands start on a fresh clone) never reads half a file.
   // Chunks first (their names carry a content hash, so a running CLI keeps
-  // its own), the entry last and by rename, so a CLI started meanwhile never
-  // imports half a file or a chunk that is not there yet.
+  // its own), the entry last, so it never points at a chunk not there yet.
   const entry = result.outputFiles.find((f) => f.path === bundlePath);
   const chunks = result.outputFiles.filter((f) => f !== entry);
-  for (const chunk of chunks) writeFileSync(chunk.path, chunk.contents);
-  const tmp = `${bundlePath}.${process.pid}.tmp`;
-  writeFileSync(tmp, entry.contents);
-  renameSync(tmp, bundlePath);
+  const place = (path, contents) => {
+    const tmp = `${path}.${process.pid}.tmp`;
+    writeFileSync(tmp, contents);
+    renameSync(tmp, path);
+  };
+  for (const chunk of chunks) place(chunk.path, chunk.contents);
+  place(bundlePath, entry.contents);
   const keep = new Set(chunks.map((c) => basename(c.path)));
-  for (const name of readdirSync(chunkDir)) if (!keep.has(name)) rmSync(join(chunkDir, name), { force: true });
+  // Old chunks go; another build's temporary files are left to it.
+  for (const name of readdirSync(chunkDir)) if (!keep.has(name) && !name.endsWith('.tmp')) rmSync(join(chunkDir, name), { force: true });
   if (!quiet) console.log(`built ${bundlePath} and ${chunks.length} chunks`);
 }
 
