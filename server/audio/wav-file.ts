@@ -58,8 +58,8 @@ export interface OpenWav {
   layout: WavLayout;
   /** Decodes the data chunk block by block with wav-decoder; each call gets channel arrays and the first frame's index. */
   forEachBlock(visit: (channels: Float32Array[], firstFrame: number) => void): Promise<void>;
-  /** Reads the data chunk (or frames [fromFrame, toFrame) of it) block by block as raw bytes of whole frames (reused buffer; copy to keep). */
-  forEachRawBlock(visit: (bytes: Uint8Array, firstFrame: number) => void, fromFrame?: number, toFrame?: number): Promise<void>;
+  /** Reads the data chunk block by block as raw bytes of whole frames (reused buffer; copy to keep). */
+  forEachRawBlock(visit: (bytes: Uint8Array, firstFrame: number) => void): Promise<void>;
   close(): Promise<void>;
 }
 
@@ -97,10 +97,10 @@ export async function openWav(path: string): Promise<OpenWav> {
         firstFrame += decoded.length;
       }
     },
-    async forEachRawBlock(visit, fromFrame = 0, toFrame = layout.frames) {
+    async forEachRawBlock(visit) {
       const bytes = new Uint8Array(BLOCK_BYTES);
-      let firstFrame = fromFrame;
-      for (const [offset, length] of wavDataBlocks(layout, BLOCK_BYTES, fromFrame, toFrame)) {
+      let firstFrame = 0;
+      for (const [offset, length] of wavDataBlocks(layout, BLOCK_BYTES)) {
         const { bytesRead } = await handle.read(bytes, 0, length, offset);
         if (bytesRead < length) {
           throw new AudioInputError('audio.truncated', 400, `The file is truncated: it shrank while being read (${offset + bytesRead} bytes).`);
@@ -121,30 +121,19 @@ export async function openWav(path: string): Promise<OpenWav> {
  */
 export type MonoDecoder = 'direct' | 'wav-decoder';
 
-/** Streams a WAV file's mono mixdown (frames before `toFrame`) block by block into `mono`, calling `onBlock` after each. */
-export async function decodeMonoInto(
-  wav: OpenWav,
-  mono: Float32Array,
-  decoder: MonoDecoder,
-  onBlock: (first: number, frames: number) => void,
-  toFrame = wav.info.frames,
-): Promise<void> {
+/** Streams a WAV file's mono mixdown block by block into `mono`, calling `onBlock` after each. */
+export async function decodeMonoInto(wav: OpenWav, mono: Float32Array, decoder: MonoDecoder, onBlock: (first: number, frames: number) => void): Promise<void> {
   if (decoder === 'wav-decoder') {
-    if (toFrame < wav.info.frames) throw new Error('decodeMonoInto: a partial range needs the direct decoder');
     await wav.forEachBlock((block, first) => {
       mixdownInto(block, mono, first);
       onBlock(first, block[0]!.length);
     });
     return;
   }
-  await wav.forEachRawBlock(
-    (bytes, first) => {
-      const frames = decodeMonoBlockInto(wav.layout, bytes, mono, first);
-      onBlock(first, frames);
-    },
-    0,
-    toFrame,
-  );
+  await wav.forEachRawBlock((bytes, first) => {
+    const frames = decodeMonoBlockInto(wav.layout, bytes, mono, first);
+    onBlock(first, frames);
+  });
 }
 
 /** Decodes a whole WAV file into one Float32Array per channel (linear, full scale ±1). */
