@@ -38,8 +38,6 @@ import { AudioInputError } from './audio-errors';
 
 /** Filter warm-up of the worker before its part of the song, seconds. */
 const WARM_UP_SEC = 1;
-/** Below this length a second thread costs more to start than it saves (splitPlan's default). */
-export const SPLIT_MIN_SEC = 40;
 /**
  * Share of the song the main thread takes: a little over half, since the
  * worker starts ~100 ms later and warms its filters up first.
@@ -76,10 +74,9 @@ export interface TailResult {
   medianFrom: number;
 }
 
-/** Where the song is split: frame S on the grid factor·hop·ONSET_BLOCK_FRAMES a little past the middle; null when shorter than `minSec` or too short to split. */
-export function splitPlan(layout: WavLayout, factor: number, hopSamples: number, minSec = SPLIT_MIN_SEC): { from: number; warmFrom: number } | null {
+/** Where the song is split: frame S on the grid factor·hop·ONSET_BLOCK_FRAMES a little past the middle; null when the song is too short to split (about one grid unit, ~8 s at 48 kHz). */
+export function splitPlan(layout: WavLayout, factor: number, hopSamples: number): { from: number; warmFrom: number } | null {
   const frames = layout.frames;
-  if (frames < minSec * layout.sampleRateHz) return null;
   const unit = factor * hopSamples * ONSET_BLOCK_FRAMES;
   const from = Math.min(Math.round((frames * MAIN_SHARE) / unit), Math.floor(frames / unit)) * unit;
   const pairUnit = 2 * factor;

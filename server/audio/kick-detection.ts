@@ -29,7 +29,7 @@ export interface DetectKickOptions {
   decoder?: MonoDecoder;
   /**
    * 1 (default): one thread. 2: the song is split between this thread and a
-   * worker (server/audio/detection-split.ts) when it is long enough (~17 s
+   * worker (server/audio/detection-split.ts) when it is long enough (~8 s
    * at 48 kHz); the hits are the same. On this project's 2-vCPU machine the
    * second thread did not pay (a 5-minute stem: 0.76–0.87 s against
    * 0.71–0.82 s on one, docs/engine.md), so it is not the default.
@@ -73,7 +73,7 @@ export async function detectKickFile(path: string, opts: DetectKickOptions = {})
     const decoder = opts.decoder ?? 'direct';
     const threads = opts.threads ?? 1;
     const geometry = onsetGeometry(band.rateHz);
-    const plan = decoder === 'direct' && threads === 2 ? splitPlan(wav.layout, band.factor, geometry.hopSamples, 0) : null;
+    const plan = decoder === 'direct' && threads === 2 ? splitPlan(wav.layout, band.factor, geometry.hopSamples) : null;
     if (plan) return { source: 'audio', sampleRate, durationSec: wav.info.durationSec, hits: await detectOnTwoThreads(path, wav, band, geometry, plan, detection) };
     if (decoder === 'wav-decoder') {
       // The reference path: every block through wav-decoder into a full mono mixdown.
