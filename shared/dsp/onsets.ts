@@ -2,7 +2,7 @@ import type { DetectionOptions, Hit } from '../schemas/hit';
 import { withDetectionDefaults } from '../schemas/hit-defaults';
 import { lowBandOf, type LowBand } from './low-band';
 import { predictionOnsetFunction, type PredictionOnsetFunction } from './onset-function';
-import { movingMedian, pickPeaks } from './peak-pick';
+import { pickPeaks } from './peak-pick';
 import { arAicChangePoint, REFINE_PAD_SEC, refineOnsetSample } from './onset-refine';
 import { energyJumpDb, NEW_HIGH_WINDOW_SEC, newHighBandDb, sustainDb } from './hit-evidence';
 
@@ -204,7 +204,7 @@ export function findCandidates(
   const hop = odf.hopSamples;
   const hopSec = hop / band.rateHz;
   const radius = medianRadiusFrames(band.rateHz, hop, tuning);
-  const peaks = pickPeaks(odf.riseDb, thresholds.minRiseDb, t.medianWeight, radius, Math.max(1, Math.round(t.peakRadiusSec / hopSec)), median ?? movingMedian(odf.riseDb, radius));
+  const peaks = pickPeaks(odf.riseDb, thresholds.minRiseDb, t.medianWeight, radius, Math.max(1, Math.round(t.peakRadiusSec / hopSec)), median);
   if (peaks.length === 0) return [];
 
   const spaced = mergeClose(peaks, Math.max(0, (opts.minGapMs / 1000 - t.coarseGapToleranceSec) / hopSec), (f) => odf.riseDb[f]!);
