@@ -215,9 +215,7 @@ export function ccChanges(curve: GainCurve, bpm: number, ppq: number, fullScale:
       }
       if (kStart !== pendingTick) {
         if (pendingValue !== written) {
-          if (out.n === out.ticks.length) growCcChanges(out);
-          out.ticks[out.n] = pendingTick;
-          out.values[out.n++] = pendingValue;
+          pushCcChange(out, pendingTick, pendingValue);
           written = pendingValue;
         }
         pendingTick = kStart;
@@ -234,21 +232,22 @@ export function ccChanges(curve: GainCurve, bpm: number, ppq: number, fullScale:
       const value = xc <= xFloor ? 0 : Math.min(fullScale, Math.round(fullScale * xc));
       // Inside the segment each tick has one value, so the pending one is final at the next tick.
       if (k !== pendingTick && pendingValue !== written) {
-        if (out.n === out.ticks.length) growCcChanges(out);
-        out.ticks[out.n] = pendingTick;
-        out.values[out.n++] = pendingValue;
+        pushCcChange(out, pendingTick, pendingValue);
         written = pendingValue;
       }
       pendingTick = k;
       pendingValue = value;
     }
   }
-  if (pendingValue !== written) {
-    if (out.n === out.ticks.length) growCcChanges(out);
-    out.ticks[out.n] = pendingTick;
-    out.values[out.n++] = pendingValue;
-  }
+  if (pendingValue !== written) pushCcChange(out, pendingTick, pendingValue);
   return out;
+}
+
+/** Appends one (tick, value) change, growing the arrays when full. */
+function pushCcChange(out: CcChanges, tick: number, value: number): void {
+  if (out.n === out.ticks.length) growCcChanges(out);
+  out.ticks[out.n] = tick;
+  out.values[out.n++] = value;
 }
 
 /** ln10/40 per dB: 10^(G/40) = e^(G·ln10/40). */
