@@ -37,13 +37,7 @@ export class AuthService {
   ensureSession(): Observable<Session | null> {
     const known = this.sessionState();
     if (known !== undefined) return of(known);
-    return this.http
-      .get<unknown>('/api/auth/me', { context: new HttpContext().set(INLINE_ERRORS, true) })
-      .pipe(
-        map((body) => sessionSchema.parse(body)),
-        catchError(() => of(null)),
-        tap((session) => this.sessionState.set(session)),
-      );
+    return this.refresh();
   }
 
   signIn(request: SignInRequest): Observable<Session> {
