@@ -57,7 +57,7 @@ export class AuditTrail {
   protected readonly total = computed(() => (this.events.hasValue() ? this.events.value().total : 0));
   protected readonly errorMessage = computed(() => {
     const err = this.events.error();
-    return err ? toApiFailure((err as { cause?: unknown }).cause ?? err).message : null;
+    return err ? toApiFailure(err).message : null;
   });
   protected readonly filtered = computed(() => !!(this.action() || this.actorId() || this.fromDay() || this.toDay()));
   protected readonly words = actionInWords;

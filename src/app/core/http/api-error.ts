@@ -22,8 +22,14 @@ const fallbackMessages: Record<number, string> = {
   500: 'Something went wrong on the server. Try again in a moment.',
 };
 
-/** Reads the API's one error shape (docs/api.md) out of any HTTP failure. */
+/**
+ * Reads the API's one error shape (docs/api.md) out of any HTTP failure. An
+ * error that wraps another in `cause` (a resource's error wraps the HTTP
+ * failure it met) is read through its cause.
+ */
 export function toApiFailure(err: unknown): ApiFailure {
+  const cause = !(err instanceof HttpErrorResponse) && typeof err === 'object' && err !== null ? (err as { cause?: unknown }).cause : undefined;
+  if (cause !== undefined) return toApiFailure(cause);
   if (!(err instanceof HttpErrorResponse)) {
     return { status: -1, code: 'client', message: err instanceof Error ? err.message : String(err), issues: [] };
   }

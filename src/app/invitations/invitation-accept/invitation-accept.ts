@@ -36,7 +36,7 @@ export class InvitationAccept {
   protected readonly session = this.auth.session;
   protected readonly linkError = computed(() => {
     const err = this.preview.error();
-    return err ? toApiFailure((err as { cause?: unknown }).cause ?? err) : null;
+    return err ? toApiFailure(err) : null;
   });
   /** Signed in as the invited address already: one button is enough. */
   protected readonly signedInAsInvitee = computed(() => {

@@ -64,7 +64,7 @@ export class PresetDetail {
   });
   protected readonly errorMessage = computed(() => {
     const err = this.preset.error();
-    return err ? toApiFailure((err as { cause?: unknown }).cause ?? err).message : null;
+    return err ? toApiFailure(err).message : null;
   });
 
   protected exportUrl(p: PresetDto): string {

@@ -95,7 +95,7 @@ export class PresetsLibrary {
   protected readonly genreOptions = computed(() => [...new Set([...suggestedGenres, ...this.seenGenres()])].sort());
   protected readonly errorMessage = computed(() => {
     const err = this.presets.error();
-    return err ? toApiFailure((err as { cause?: unknown }).cause ?? err).message : null;
+    return err ? toApiFailure(err).message : null;
   });
 
   constructor() {

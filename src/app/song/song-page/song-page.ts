@@ -75,7 +75,7 @@ export class SongPage {
   });
   protected readonly errorMessage = computed(() => {
     const err = this.songResource.error();
-    return err ? toApiFailure((err as { cause?: unknown }).cause ?? err).message : this.workspaceError();
+    return err ? toApiFailure(err).message : this.workspaceError();
   });
   protected readonly canEdit = computed(() => this.auth.role() !== null && this.auth.can('editSongs'));
   protected readonly canPrepare = computed(() => this.auth.role() !== null && this.auth.can('prepareSongs'));

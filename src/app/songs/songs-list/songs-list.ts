@@ -71,7 +71,7 @@ export class SongsList {
   protected readonly total = computed(() => (this.songs.hasValue() ? this.songs.value().total : 0));
   protected readonly errorMessage = computed(() => {
     const err = this.songs.error();
-    return err ? toApiFailure((err as { cause?: unknown }).cause ?? err).message : null;
+    return err ? toApiFailure(err).message : null;
   });
 
   constructor() {

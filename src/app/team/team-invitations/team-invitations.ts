@@ -54,7 +54,7 @@ export class TeamInvitations {
   });
   protected readonly errorMessage = computed(() => {
     const err = this.invitations.error();
-    return err ? toApiFailure((err as { cause?: unknown }).cause ?? err).message : null;
+    return err ? toApiFailure(err).message : null;
   });
 
   protected invite(formDir: FormGroupDirective): void {

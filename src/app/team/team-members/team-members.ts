@@ -48,7 +48,7 @@ export class TeamMembers {
   });
   protected readonly errorMessage = computed(() => {
     const err = this.members.error();
-    return err ? toApiFailure((err as { cause?: unknown }).cause ?? err).message : null;
+    return err ? toApiFailure(err).message : null;
   });
 
   protected changeRole(member: Member, role: Role): void {

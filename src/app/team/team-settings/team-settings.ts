@@ -57,7 +57,7 @@ export class TeamSettings {
   protected readonly fieldError = fieldError;
   protected readonly loadError = computed(() => {
     const err = this.settings.error();
-    return err ? toApiFailure((err as { cause?: unknown }).cause ?? err).message : null;
+    return err ? toApiFailure(err).message : null;
   });
 
   constructor() {
