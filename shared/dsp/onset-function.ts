@@ -90,116 +90,155 @@ function onsetBlock(
   out: PredictionOnsetFunction,
   outFrameOffset: number,
 ): void {
-  const { riseDb, innovation } = out;
-
-  const p = ORDER; // the unrolled loops below assume 4
-  const epsilon = 1e-8;
-  // Running sums over the fitting window of products x[i−j]·x[i−k], j,k = 0..p,
-  // for i in [s − fit, s): entry (j,k) at j·(p+1)+k.
-  const dim = p + 1;
-  const sums = new Float64Array(dim * dim);
-  // Indexes below are of the whole low band; x[i − xStart] holds sample i.
-  // The sums cover i in [max(first, windowEnd − fit), windowEnd), starting empty at `first`.
+  const p = ORDER; // the unrolled code below assumes 4
+  // Every sum the predictor needs is a windowed sum of lagged products,
+  // Σ_{j∈[A,B)} x[j−u]·x[j−v] = Λ_d(B−u) − Λ_d(A−u) with d = v − u and the
+  // lag prefix sums Λ_d(i) = Σ_{k<i} x[k]·x[k−d], d = 0..4: five products a
+  // sample instead of sliding fifteen in and out, and no predictor run over
+  // the scoring window. Positions are of the whole low band; x[k − xStart]
+  // holds sample k. The prefix sums start afresh at `base` for each block,
+  // so no rounding carries past a block; a term whose lagged sample lies
+  // before `base` counts as zero, and no window a frame reads contains one.
   const first = Math.max(0, frameFrom * hopSamples - fitSamples);
-  let windowEnd = first;
+  const base = Math.max(0, first - p);
+  const last = Math.min(n, (frameTo - 1) * hopSamples + windowSamples);
+  const prefix = lagPrefixSums(x, xStart, base, last);
+  scoreFrames(prefix, base, first, n, hopSamples, fitSamples, windowSamples, frameFrom, frameTo, out, outFrameOffset);
+}
+
+/** Lags of the prefix sums: 0..ORDER, the stride of a position in the prefix array. */
+const LAGS = ORDER + 1;
+
+/** The prefix-sum array, reused from block to block (one call at a time per thread). */
+let prefixStore = new Float64Array(0);
+
+/**
+ * Λ_d(i) for i in [base, last] at (i − base)·5 + d: Λ_d(base) = 0 and
+ * Λ_d(i + 1) = Λ_d(i) + x[i]·x[i − d], the term zero when i − d < base.
+ * Its own small function: a short loop with five sums compiles in a few
+ * milliseconds, which matters to a command that runs once.
+ */
+function lagPrefixSums(x: Float32Array, xStart: number, base: number, last: number): Float64Array {
+  const need = (last - base + 1) * LAGS;
+  if (prefixStore.length < need) prefixStore = new Float64Array(need);
+  const out = prefixStore;
+  let l0 = 0, l1 = 0, l2 = 0, l3 = 0, l4 = 0;
+  let m1 = 0, m2 = 0, m3 = 0, m4 = 0;
+  out[0] = 0; out[1] = 0; out[2] = 0; out[3] = 0; out[4] = 0;
+  for (let i = base, o = LAGS; i < last; i++, o += LAGS) {
+    const x0 = x[i - xStart]!;
+    l0 += x0 * x0;
+    l1 += x0 * m1;
+    l2 += x0 * m2;
+    l3 += x0 * m3;
+    l4 += x0 * m4;
+    out[o] = l0; out[o + 1] = l1; out[o + 2] = l2; out[o + 3] = l3; out[o + 4] = l4;
+    m4 = m3;
+    m3 = m2;
+    m2 = m1;
+    m1 = x0;
+  }
+  return out;
+}
+
+/**
+ * The frames of one block from the lag prefix sums (see onsetBlock): fit the
+ * predictor on [max(first, s − fit, 4), s), score it on [max(s, 4), end).
+ */
+function scoreFrames(
+  P: Float64Array,
+  base: number,
+  first: number,
+  n: number,
+  hopSamples: number,
+  fitSamples: number,
+  windowSamples: number,
+  frameFrom: number,
+  frameTo: number,
+  out: PredictionOnsetFunction,
+  outFrameOffset: number,
+): void {
+  const { riseDb, innovation } = out;
+  const p = ORDER;
+  const epsilon = 1e-8;
+  // Offsets of the positions B − u, u = 1..4, from B's.
+  const u1 = LAGS, u2 = 2 * LAGS, u3 = 3 * LAGS, u4 = 4 * LAGS;
   for (let f = frameFrom; f < frameTo; f++) {
     const s = f * hopSamples;
-    while (windowEnd < s) {
-      // No closure here: a fresh one per block made the optimised code deoptimise at every block.
-      if (windowEnd - p >= 0) addProducts(x, windowEnd - xStart, sums, 1);
-      const leaving = windowEnd - fitSamples;
-      if (leaving >= first && leaving - p >= 0) addProducts(x, leaving - xStart, sums, -1);
-      windowEnd++;
-    }
+    const end = s + windowSamples < n ? s + windowSamples : n;
+    // The window [fitFrom, fitTo): no sample before the fifth has four before it.
+    const fitTo = s > p ? s : p;
+    let fitFrom = s - fitSamples > first ? s - fitSamples : first;
+    if (fitFrom < p) fitFrom = p;
+    if (fitFrom > fitTo) fitFrom = fitTo;
+    const b = (fitTo - base) * LAGS;
+    const a = (fitFrom - base) * LAGS;
+    // Fit window sums: C_jk = Σ x[i−j]x[i−k], r_j = Σ x[i]x[i−j], c00 = Σ x[i]².
+    const c00 = P[b]! - P[a]!;
+    const r1 = P[b + 1]! - P[a + 1]!, r2 = P[b + 2]! - P[a + 2]!, r3 = P[b + 3]! - P[a + 3]!, r4 = P[b + 4]! - P[a + 4]!;
+    const c11 = P[b - u1]! - P[a - u1]!, c12 = P[b - u1 + 1]! - P[a - u1 + 1]!;
+    const c13 = P[b - u1 + 2]! - P[a - u1 + 2]!, c14 = P[b - u1 + 3]! - P[a - u1 + 3]!;
+    const c22 = P[b - u2]! - P[a - u2]!, c23 = P[b - u2 + 1]! - P[a - u2 + 1]!, c24 = P[b - u2 + 2]! - P[a - u2 + 2]!;
+    const c33 = P[b - u3]! - P[a - u3]!, c34 = P[b - u3 + 1]! - P[a - u3 + 1]!;
+    const c44 = P[b - u4]! - P[a - u4]!;
     const count = Math.max(0, Math.min(fitSamples, s - p));
-    // Normal equations (C + ridge·I)·a = r with C_jk = Σ x[i−j]x[i−k], r_j = Σ x[i]x[i−j],
-    // j,k = 1..4, solved by an unrolled Cholesky factorisation.
-    const c11 = sums[6]!, c12 = sums[7]!, c13 = sums[8]!, c14 = sums[9]!;
-    const c22 = sums[12]!, c23 = sums[13]!, c24 = sums[14]!;
-    const c33 = sums[18]!, c34 = sums[19]!, c44 = sums[24]!;
-    const r1 = sums[1]!, r2 = sums[2]!, r3 = sums[3]!, r4 = sums[4]!;
+    // Normal equations (C + ridge·I)·a = r, j,k = 1..4, solved by an unrolled
+    // Cholesky factorisation that keeps the reciprocals of the diagonal: four
+    // divisions a frame instead of fourteen, which were its slowest chain.
     const ridge = 1e-6 * (c11 + c22 + c33 + c44) + 1e-12;
     let a1 = 0, a2 = 0, a3 = 0, a4 = 0;
     const d1 = c11 + ridge;
     if (d1 > 0) {
-      const l11 = Math.sqrt(d1);
-      const l21 = c12 / l11, l31 = c13 / l11, l41 = c14 / l11;
+      const i11 = 1 / Math.sqrt(d1);
+      const l21 = c12 * i11, l31 = c13 * i11, l41 = c14 * i11;
       const d2 = c22 + ridge - l21 * l21;
       if (d2 > 0) {
-        const l22 = Math.sqrt(d2);
-        const l32 = (c23 - l31 * l21) / l22, l42 = (c24 - l41 * l21) / l22;
+        const i22 = 1 / Math.sqrt(d2);
+        const l32 = (c23 - l31 * l21) * i22, l42 = (c24 - l41 * l21) * i22;
         const d3 = c33 + ridge - l31 * l31 - l32 * l32;
         if (d3 > 0) {
-          const l33 = Math.sqrt(d3);
-          const l43 = (c34 - l41 * l31 - l42 * l32) / l33;
+          const i33 = 1 / Math.sqrt(d3);
+          const l43 = (c34 - l41 * l31 - l42 * l32) * i33;
           const d4 = c44 + ridge - l41 * l41 - l42 * l42 - l43 * l43;
           if (d4 > 0) {
-            const l44 = Math.sqrt(d4);
-            const y1 = r1 / l11;
-            const y2 = (r2 - l21 * y1) / l22;
-            const y3 = (r3 - l31 * y1 - l32 * y2) / l33;
-            const y4 = (r4 - l41 * y1 - l42 * y2 - l43 * y3) / l44;
-            a4 = y4 / l44;
-            a3 = (y3 - l43 * a4) / l33;
-            a2 = (y2 - l32 * a3 - l42 * a4) / l22;
-            a1 = (y1 - l21 * a2 - l31 * a3 - l41 * a4) / l11;
+            const i44 = 1 / Math.sqrt(d4);
+            const y1 = r1 * i11;
+            const y2 = (r2 - l21 * y1) * i22;
+            const y3 = (r3 - l31 * y1 - l32 * y2) * i33;
+            const y4 = (r4 - l41 * y1 - l42 * y2 - l43 * y3) * i44;
+            a4 = y4 * i44;
+            a3 = (y3 - l43 * a4) * i33;
+            a2 = (y2 - l32 * a3 - l42 * a4) * i22;
+            a1 = (y1 - l21 * a2 - l31 * a3 - l41 * a4) * i11;
           }
         }
       }
     }
     // Fit error E = c00 − 2·aᵀr + aᵀ·C·a; with (C + ridge·I)·a = r this is c00 − aᵀr − ridge·|a|².
-    const err = sums[0]! - (a1 * r1 + a2 * r2 + a3 * r3 + a4 * r4) - ridge * (a1 * a1 + a2 * a2 + a3 * a3 + a4 * a4);
+    const err = c00 - (a1 * r1 + a2 * r2 + a3 * r3 + a4 * r4) - ridge * (a1 * a1 + a2 * a2 + a3 * a3 + a4 * a4);
     const before = count > 0 ? Math.max(0, err) / count : 0;
-    let after = 0;
-    const end = s + windowSamples < n ? s + windowSamples : n;
-    // The four previous samples ride along in locals (one load per sample; same sums in the same order).
-    const i0 = (s < p ? p : s) - xStart;
-    const last = end - xStart;
-    if (i0 < last) {
-      let m1 = x[i0 - 1]!, m2 = x[i0 - 2]!, m3 = x[i0 - 3]!, m4 = x[i0 - 4]!;
-      for (let i = i0; i < last; i++) {
-        const xi = x[i]!;
-        const e = xi - (a1 * m1 + a2 * m2 + a3 * m3 + a4 * m4);
-        after += e * e;
-        m4 = m3;
-        m3 = m2;
-        m2 = m1;
-        m1 = xi;
-      }
-    }
-    const len = Math.max(1, end - s);
-    after /= len;
+    // The same predictor's squared error over the scoring window [max(s, 4), end):
+    // Σ (x[i] − aᵀm)² = W00 − 2·aᵀW0 + aᵀ·W·a with that window's sums W.
+    const e = (end - base) * LAGS;
+    const g = ((s > p ? s : p) - base) * LAGS;
+    const w00 = P[e]! - P[g]!;
+    const w01 = P[e + 1]! - P[g + 1]!, w02 = P[e + 2]! - P[g + 2]!, w03 = P[e + 3]! - P[g + 3]!, w04 = P[e + 4]! - P[g + 4]!;
+    const w11 = P[e - u1]! - P[g - u1]!, w12 = P[e - u1 + 1]! - P[g - u1 + 1]!;
+    const w13 = P[e - u1 + 2]! - P[g - u1 + 2]!, w14 = P[e - u1 + 3]! - P[g - u1 + 3]!;
+    const w22 = P[e - u2]! - P[g - u2]!, w23 = P[e - u2 + 1]! - P[g - u2 + 1]!, w24 = P[e - u2 + 2]! - P[g - u2 + 2]!;
+    const w33 = P[e - u3]! - P[g - u3]!, w34 = P[e - u3 + 1]! - P[g - u3 + 1]!;
+    const w44 = P[e - u4]! - P[g - u4]!;
+    const cross = a1 * w01 + a2 * w02 + a3 * w03 + a4 * w04;
+    const quad =
+      a1 * (a1 * w11 + 2 * (a2 * w12 + a3 * w13 + a4 * w14)) +
+      a2 * (a2 * w22 + 2 * (a3 * w23 + a4 * w24)) +
+      a3 * (a3 * w33 + 2 * a4 * w34) +
+      a4 * a4 * w44;
+    const sq = w00 - 2 * cross + quad;
+    const after = sq > 0 ? sq / Math.max(1, end - s) : 0;
     const o = f - outFrameOffset;
     innovation[o] = after;
-    const r = 10 * Math.log10((after + epsilon) / (before + epsilon));
-    riseDb[o] = r > 0 ? r : 0;
+    // No rise (the error did not grow) needs no logarithm.
+    riseDb[o] = after > before ? 10 * Math.log10((after + epsilon) / (before + epsilon)) : 0;
   }
-}
-
-/**
- * sums += sign · the 15 distinct products of x[at], x[at−1] … x[at−4]
- * (entry (j,k) at j·5 + k), unrolled for order 4; runs twice per low-band
- * sample. A module-level function, so it optimises once for every block.
- */
-function addProducts(x: Float32Array, at: number, sums: Float64Array, sign: number): void {
-  const x0 = x[at]!;
-  const x1 = x[at - 1]!;
-  const x2 = x[at - 2]!;
-  const x3 = x[at - 3]!;
-  const x4 = x[at - 4]!;
-  sums[0]! += sign * x0 * x0;
-  sums[1]! += sign * x0 * x1;
-  sums[2]! += sign * x0 * x2;
-  sums[3]! += sign * x0 * x3;
-  sums[4]! += sign * x0 * x4;
-  sums[6]! += sign * x1 * x1;
-  sums[7]! += sign * x1 * x2;
-  sums[8]! += sign * x1 * x3;
-  sums[9]! += sign * x1 * x4;
-  sums[12]! += sign * x2 * x2;
-  sums[13]! += sign * x2 * x3;
-  sums[14]! += sign * x2 * x4;
-  sums[18]! += sign * x3 * x3;
-  sums[19]! += sign * x3 * x4;
-  sums[24]! += sign * x4 * x4;
 }
