@@ -1,4 +1,4 @@
-import type { GainCurve, GainPoint } from './gain-curve';
+import { curveArrays, packedCurve, type CurveArrays, type GainCurve } from './gain-curve';
 import { amplitudeMemo } from './gain-memo';
 
 export interface ThinOptions {
@@ -25,13 +25,14 @@ const TOLERANCE_SHARE = 0.85;
  */
 export function thinCurve(curve: GainCurve, opts: ThinOptions = {}): GainCurve {
   const ignoreBelowDb = opts.ignoreBelowDb ?? -40;
-  if (curve.points.length <= 2) return { ...curve, points: curve.points.slice() };
+  const arrays = curveArrays(curve);
   const tolDb = (opts.toleranceDb ?? 0.5) * TOLERANCE_SHARE;
-  return { ...curve, points: thinPoints(curve.points, { ignoreBelowDb, db: tolDb, ratio: Math.pow(10, tolDb / 20) }) };
+  const thin = arrays.timeSec.length <= 2 ? { timeSec: arrays.timeSec.slice(), gainDb: arrays.gainDb.slice() } : thinPoints(arrays, { ignoreBelowDb, db: tolDb, ratio: Math.pow(10, tolDb / 20) });
+  return packedCurve(thin, curve.baseGainDb, curve.floorDb);
 }
 
-/** `thinCurve` on the points (at least 3). */
-function thinPoints(points: readonly GainPoint[], tol: Tolerance): GainPoint[] {
+/** `thinCurve` on the arrays (at least 3 points). */
+function thinPoints(points: CurveArrays, tol: Tolerance): CurveArrays {
   const d = withCrossings(points, tol.ignoreBelowDb);
   const n = d.n;
   const keep = new Uint8Array(n);
@@ -51,7 +52,7 @@ function thinPoints(points: readonly GainPoint[], tol: Tolerance): GainPoint[] {
     if (k - start > 1) thinStretch(d, tol, start, k, keep, stack);
     start = k;
   }
-  return keptPoints(points, d, keep);
+  return keptPoints(d, keep);
 }
 
 /** Marks the curve's ends and the ends of its flat runs (exact; they split the work into short stretches). */
@@ -138,27 +139,26 @@ function worstPoint(d: DenseCurve, tol: Tolerance, i: number, j: number): number
   return worst;
 }
 
-/**
- * The kept points, without the middle points of flat runs (they carry nothing);
- * the curve's own points are shared, not copied (points are never changed once made).
- */
-function keptPoints(points: readonly GainPoint[], d: DenseCurve, keep: Uint8Array): GainPoint[] {
-  const { t, g, source, n } = d;
-  const slim: GainPoint[] = [];
-  // Dense indexes of the last two points in `slim` (−1: none yet).
+/** The kept points, without the middle points of flat runs (they carry nothing). */
+function keptPoints(d: DenseCurve, keep: Uint8Array): CurveArrays {
+  const { t, g, n } = d;
+  let count = 0;
+  for (let k = 0; k < n; k++) count += keep[k];
+  const timeSec = new Float64Array(count);
+  const gainDb = new Float64Array(count);
+  let at = 0;
+  // Dense indexes of the last two points kept (−1: none yet).
   let last = -1;
   let beforeLast = -1;
   for (let k = 0; k < n; k++) {
     if (!keep[k]) continue;
-    const p = source[k] >= 0 ? points[source[k]] : { timeSec: t[k], gainDb: g[k] };
-    if (beforeLast >= 0 && g[last] === g[k] && g[beforeLast] === g[k]) slim[slim.length - 1] = p;
-    else {
-      slim.push(p);
-      beforeLast = last;
-    }
+    if (beforeLast >= 0 && g[last] === g[k] && g[beforeLast] === g[k]) at--;
+    else beforeLast = last;
+    timeSec[at] = t[k];
+    gainDb[at++] = g[k];
     last = k;
   }
-  return slim;
+  return { timeSec: timeSec.subarray(0, at), gainDb: gainDb.subarray(0, at) };
 }
 
 /**
@@ -170,12 +170,11 @@ function keptPoints(points: readonly GainPoint[], d: DenseCurve, keep: Uint8Arra
  */
 const MAX_PIECE_DB = 2;
 
-/** The curve to thin, as arrays: time (s), gain (dB), amplitude 10^(G/20), and the index of the original point (−1 for an added one). */
+/** The curve to thin, as arrays: time (s), gain (dB) and amplitude 10^(G/20). */
 interface DenseCurve {
   t: Float64Array;
   g: Float64Array;
   a: Float64Array;
-  source: Int32Array;
   n: number;
 }
 
@@ -183,55 +182,56 @@ interface DenseCurve {
  * The curve with a point added wherever a segment crosses `levelDb` and every
  * `MAX_PIECE_DB` along high segments (straight in dB, so exact), as arrays.
  */
-function withCrossings(points: readonly GainPoint[], levelDb: number): DenseCurve {
+function withCrossings(points: CurveArrays, levelDb: number): DenseCurve {
+  const T = points.timeSec;
+  const G = points.gainDb;
+  const count = T.length;
   // At most: every point, a crossing per segment and its pieces' inner points.
-  let cap = points.length;
-  for (let k = 0; k + 1 < points.length; k++) {
-    const dG = points[k + 1].gainDb - points[k].gainDb;
+  let cap = count;
+  for (let k = 0; k + 1 < count; k++) {
+    const dG = G[k + 1] - G[k];
     if (dG !== 0) cap += Math.ceil(Math.abs(dG) / MAX_PIECE_DB);
   }
   const t = new Float64Array(cap);
   const g = new Float64Array(cap);
   const a = new Float64Array(cap);
-  const source = new Int32Array(cap);
   const memo = amplitudeMemo();
   let n = 0;
-  for (let k = 0; k < points.length; k++) {
-    const p = points[k];
-    t[n] = p.timeSec;
-    g[n] = p.gainDb;
-    a[n] = memo.of(p.gainDb);
-    source[n++] = k;
-    const q = points[k + 1];
-    if (!q) break;
-    const dG = q.gainDb - p.gainDb;
+  for (let k = 0; k < count; k++) {
+    const pt = T[k];
+    const pg = G[k];
+    t[n] = pt;
+    g[n] = pg;
+    a[n++] = memo.of(pg);
+    if (k + 1 === count) break;
+    const qt = T[k + 1];
+    const qg = G[k + 1];
+    const dG = qg - pg;
     if (dG === 0) continue;
-    const span = q.timeSec - p.timeSec;
+    const span = qt - pt;
     const pieces = Math.ceil(Math.abs(dG) / MAX_PIECE_DB);
-    const crossing = (p.gainDb - levelDb) * (q.gainDb - levelDb) < 0 ? (levelDb - p.gainDb) / dG : 2;
+    const crossing = (pg - levelDb) * (qg - levelDb) < 0 ? (levelDb - pg) / dG : 2;
     let crossed = crossing > 1;
     for (let j = 1; j <= pieces; j++) {
       const u = j / pieces;
       if (!crossed && crossing <= u) {
         crossed = true;
-        const time = p.timeSec + span * crossing;
-        if (time > t[n - 1] && time < q.timeSec && crossing < u) {
+        const time = pt + span * crossing;
+        if (time > t[n - 1] && time < qt && crossing < u) {
           t[n] = time;
           g[n] = levelDb;
-          a[n] = memo.of(levelDb);
-          source[n++] = -1;
+          a[n++] = memo.of(levelDb);
         }
       }
       if (j === pieces) break;
-      const time = p.timeSec + span * u;
-      if (time > t[n - 1] && time < q.timeSec) {
-        const gain = p.gainDb + dG * u;
+      const time = pt + span * u;
+      if (time > t[n - 1] && time < qt) {
+        const gain = pg + dG * u;
         t[n] = time;
         g[n] = gain;
-        a[n] = memo.of(gain);
-        source[n++] = -1;
+        a[n++] = memo.of(gain);
       }
     }
   }
-  return { t, g, a, source, n };
+  return { t, g, a, n };
 }

@@ -22,6 +22,68 @@ export interface GainCurve {
   floorDb?: number;
 }
 
+/**
+ * A curve's breakpoints as two arrays of one length: seconds ascending, and
+ * dB. Stamping, thinning, the writers and the renderers work on these; a song's
+ * curve has tens of thousands of points, and as objects each of their doubles
+ * would be a separate heap allocation (a scavenge copies them all while the
+ * curve is alive).
+ */
+export interface CurveArrays {
+  timeSec: Float64Array;
+  gainDb: Float64Array;
+}
+
+/** The arrays of curves made by `packedCurve` whose points nobody has read yet. */
+const packed = new WeakMap<GainCurve, CurveArrays>();
+
+/**
+ * A gain curve held as arrays. Its `points` are made on first read (for the
+ * API, the browser and tests, which want objects) and from then on are the
+ * curve: the arrays are dropped, so a change made to a point is never missed.
+ * `points` is an own enumerable property, so JSON, a structured clone and a
+ * spread see the points as they would on a plain curve.
+ */
+export function packedCurve(arrays: CurveArrays, baseGainDb: number | undefined, floorDb: number | undefined): GainCurve {
+  const curve: GainCurve = {
+    get points(): GainPoint[] {
+      const points: GainPoint[] = new Array(arrays.timeSec.length);
+      for (let i = 0; i < points.length; i++) points[i] = { timeSec: arrays.timeSec[i], gainDb: arrays.gainDb[i] };
+      setPoints(curve, points);
+      return points;
+    },
+    set points(points: GainPoint[]) {
+      setPoints(curve, points);
+    },
+    baseGainDb,
+    floorDb,
+  };
+  packed.set(curve, arrays);
+  return curve;
+}
+
+function setPoints(curve: GainCurve, points: GainPoint[]): void {
+  packed.delete(curve);
+  Object.defineProperty(curve, 'points', { value: points, writable: true, enumerable: true, configurable: true });
+}
+
+/**
+ * The curve's breakpoints as arrays: those of a `packedCurve` whose points were
+ * never read (shared, not copied: never write to them), else copied from `points`.
+ */
+export function curveArrays(curve: GainCurve): CurveArrays {
+  const arrays = packed.get(curve);
+  if (arrays) return arrays;
+  const p = curve.points;
+  const timeSec = new Float64Array(p.length);
+  const gainDb = new Float64Array(p.length);
+  for (let i = 0; i < p.length; i++) {
+    timeSec[i] = p[i].timeSec;
+    gainDb[i] = p[i].gainDb;
+  }
+  return { timeSec, gainDb };
+}
+
 /** The result of stamping one lane. */
 export interface StampResult {
   curve: GainCurve;

@@ -1,7 +1,7 @@
 import type { Hit } from '../schemas/hit';
 import type { TuckShape } from '../schemas/tuck-shape';
 import { DEFAULT_FLOOR_DB } from '../schemas/tuck-shape';
-import type { GainPoint, StampResult, TuckTemplate } from './gain-curve';
+import { packedCurve, type CurveArrays, type StampResult, type TuckTemplate } from './gain-curve';
 import { buildTuckTemplate } from './slope-guard';
 
 export interface StampOptions {
@@ -50,8 +50,8 @@ export function stampHits(hits: readonly Hit[], shape: TuckShape, opts: StampOpt
   const durationSec = Math.max(0, opts.durationSec);
   const gatedHitIndexes: number[] = [];
   if (base <= floor) {
-    const g = floor;
-    return { curve: { points: [{ timeSec: 0, gainDb: g }, { timeSec: durationSec, gainDb: g }], baseGainDb: base, floorDb: floor }, gatedHitIndexes, stampedHitCount: 0 };
+    const flat = { timeSec: Float64Array.of(0, durationSec), gainDb: Float64Array.of(floor, floor) };
+    return { curve: packedCurve(flat, base, floor), gatedHitIndexes, stampedHitCount: 0 };
   }
 
   const order: number[] = [];
@@ -120,7 +120,7 @@ export function stampHits(hits: readonly Hit[], shape: TuckShape, opts: StampOpt
     curve.n = c + merged.n;
   }
 
-  return { curve: { points: finish(curve.t, curve.g, curve.n, base, durationSec), baseGainDb: base, floorDb: floor }, gatedHitIndexes, stampedHitCount };
+  return { curve: packedCurve(finish(curve.t, curve.g, curve.n, base, durationSec), base, floor), gatedHitIndexes, stampedHitCount };
 }
 
 /** Growable parallel arrays of breakpoints (seconds, dB); `n` are in use. */
@@ -206,8 +206,9 @@ function minMerge(aT: Float64Array, aG: Float64Array, from: number, aEnd: number
  * adds the base gain, clips at the song's ends (interpolating the gain there)
  * and drops the middle points of flat runs.
  */
-function finish(T: Float64Array, G: Float64Array, n: number, base: number, durationSec: number): GainPoint[] {
-  const out: GainPoint[] = [];
+function finish(T: Float64Array, G: Float64Array, n: number, base: number, durationSec: number): CurveArrays {
+  // At most the n points, one at each end and one at the song's end.
+  const out = new Breakpoints(n + 3);
   const at = (x: number, k: number) => {
     const span = T[k + 1] - T[k];
     return span > 0 ? G[k] + ((G[k + 1] - G[k]) * (x - T[k])) / span : G[k + 1];
@@ -222,16 +223,16 @@ function finish(T: Float64Array, G: Float64Array, n: number, base: number, durat
     pushPoint(out, T[k], base + G[k]);
   }
   pushPoint(out, durationSec, base + (n && T[n - 1] > durationSec ? at(durationSec, firstAfter(T, n, durationSec) - 1) : 0));
-  if (out.length === 1) out.push({ timeSec: durationSec, gainDb: out[0].gainDb });
-  return out;
+  if (out.n === 1) out.push(durationSec, out.g[0]);
+  return { timeSec: out.t.subarray(0, out.n), gainDb: out.g.subarray(0, out.n) };
 }
 
 /** Appends a breakpoint unless it is not later than the last; a flat run's last point moves instead. */
-function pushPoint(out: GainPoint[], timeSec: number, gainDb: number): void {
-  const n = out.length;
-  if (n && out[n - 1].timeSec >= timeSec) return;
-  if (n >= 2 && out[n - 1].gainDb === gainDb && out[n - 2].gainDb === gainDb) out[n - 1].timeSec = timeSec;
-  else out.push({ timeSec, gainDb });
+function pushPoint(out: Breakpoints, timeSec: number, gainDb: number): void {
+  const n = out.n;
+  if (n && out.t[n - 1] >= timeSec) return;
+  if (n >= 2 && out.g[n - 1] === gainDb && out.g[n - 2] === gainDb) out.t[n - 1] = timeSec;
+  else out.push(timeSec, gainDb);
 }
 
 /** Index of the first of T[0..n) > x (T ascending). */

@@ -1,4 +1,4 @@
-import type { GainCurve } from '../dsp/gain-curve';
+import { curveArrays, type GainCurve } from '../dsp/gain-curve';
 import { amplitudeMemo, type DbMemo } from '../dsp/gain-memo';
 import { csvExportOptionsSchema, type CsvExportOptionsInput } from '../schemas/export-options';
 
@@ -27,9 +27,11 @@ export function writeBreakpointCsvBytes(curve: GainCurve, options: CsvExportOpti
   const ticksPerBar = ticksPerBeat * num;
   const ticksPerSec = (o.bpm * o.ppq) / 60;
   const sampleRate = o.sampleRate;
+  const { timeSec, gainDb } = curveArrays(curve);
+  const count = timeSec.length;
   // Rows are written as ASCII into one buffer with integer arithmetic (no
   // per-row strings: a song's CSV has tens of thousands of rows).
-  let buf = new Uint8Array(HEADER.length + 2 + curve.points.length * 48 + MAX_ROW_BYTES);
+  let buf = new Uint8Array(HEADER.length + 2 + count * 48 + MAX_ROW_BYTES);
   let at = 0;
   for (let i = 0; i < HEADER.length; i++) buf[at++] = HEADER.charCodeAt(i);
   buf[at++] = 13;
@@ -45,15 +47,16 @@ export function writeBreakpointCsvBytes(curve: GainCurve, options: CsvExportOpti
   let lastGain = NaN;
   let milliDb = 0;
   let linMicro = 0;
-  for (const p of curve.points) {
-    const t = Math.max(0, p.timeSec);
+  for (let i = 0; i < count; i++) {
+    const t = Math.max(0, timeSec[i]);
+    const g = gainDb[i];
     const micros = Math.round(t * 1e6);
     if (micros === lastMicros) continue;
     lastMicros = micros;
-    if (p.gainDb !== lastGain) {
-      lastGain = p.gainDb;
-      milliDb = Math.round(p.gainDb * 1000);
-      linMicro = roundedMicroGain(memo, p.gainDb);
+    if (g !== lastGain) {
+      lastGain = g;
+      milliDb = Math.round(g * 1000);
+      linMicro = roundedMicroGain(memo, g);
     }
     if (at + MAX_ROW_BYTES > buf.length) {
       const next = new Uint8Array(buf.length * 2);

@@ -1,4 +1,4 @@
-import type { GainCurve } from '../dsp/gain-curve';
+import { curveArrays, type GainCurve } from '../dsp/gain-curve';
 import { midiExportOptionsSchema, type MidiExportOptionsInput } from '../schemas/export-options';
 import { secondsToTicks } from './bar-beat';
 import { encodeVlq, writeVlq } from './vlq';
@@ -176,9 +176,10 @@ function growCcChanges(s: CcChanges): void {
  * The value a tick ends with counts (a breakpoint on a tick: the later segment's).
  */
 export function ccChanges(curve: GainCurve, bpm: number, ppq: number, fullScale: number): CcChanges {
-  const p = curve.points;
-  const out: CcChanges = { ticks: new Float64Array(p.length * 4 + 16), values: new Uint16Array(p.length * 4 + 16), n: 0 };
-  if (p.length === 0) return out;
+  const { timeSec, gainDb } = curveArrays(curve);
+  const count = timeSec.length;
+  const out: CcChanges = { ticks: new Float64Array(count * 4 + 16), values: new Uint16Array(count * 4 + 16), n: 0 };
+  if (count === 0) return out;
   const floorDb = curve.floorDb ?? -Infinity;
   const xFloor = Math.pow(10, floorDb / 40);
   const ticksPerSec = (bpm * ppq) / 60;
@@ -186,21 +187,23 @@ export function ccChanges(curve: GainCurve, bpm: number, ppq: number, fullScale:
   let pendingTick = 0;
   // 10^(G/40) of the breakpoints' gains, which repeat at every hit: the same Math.pow, memoised.
   const x40 = new DbMemo((gainDb) => Math.pow(10, gainDb / 40));
-  let pendingValue = ccValue(p[0].gainDb, floorDb, fullScale);
-  for (let i = 0; i + 1 < p.length; i++) {
-    const a = p[i];
-    const b = p[i + 1];
-    const kStart = Math.max(1, Math.ceil(a.timeSec * ticksPerSec - 1e-9));
-    const kEnd = Math.floor(b.timeSec * ticksPerSec + 1e-9);
+  let pendingValue = ccValue(gainDb[0], floorDb, fullScale);
+  for (let i = 0; i + 1 < count; i++) {
+    const aT = timeSec[i];
+    const aG = gainDb[i];
+    const bT = timeSec[i + 1];
+    const bG = gainDb[i + 1];
+    const kStart = Math.max(1, Math.ceil(aT * ticksPerSec - 1e-9));
+    const kEnd = Math.floor(bT * ticksPerSec + 1e-9);
     if (kStart > kEnd) continue;
-    const flat = a.gainDb === b.gainDb;
-    const dbPerTick = flat ? 0 : (b.gainDb - a.gainDb) / ((b.timeSec - a.timeSec) * ticksPerSec);
-    const gStart = a.gainDb + dbPerTick * (kStart - a.timeSec * ticksPerSec);
-    const gLo = a.gainDb < b.gainDb ? a.gainDb : b.gainDb;
-    const gHi = a.gainDb < b.gainDb ? b.gainDb : a.gainDb;
+    const flat = aG === bG;
+    const dbPerTick = flat ? 0 : (bG - aG) / ((bT - aT) * ticksPerSec);
+    const gStart = aG + dbPerTick * (kStart - aT * ticksPerSec);
+    const gLo = aG < bG ? aG : bG;
+    const gHi = aG < bG ? bG : aG;
     if (flat || kStart === kEnd) {
       let value: number;
-      if (flat) value = a.gainDb <= floorDb ? 0 : Math.max(0, Math.min(fullScale, Math.round(fullScale * x40.of(a.gainDb))));
+      if (flat) value = aG <= floorDb ? 0 : Math.max(0, Math.min(fullScale, Math.round(fullScale * x40.of(aG))));
       else {
         const gc = gStart < gLo ? gLo : gStart > gHi ? gHi : gStart;
         // Through Math.exp, a third of Math.pow's time; where that few-ulp difference could
