@@ -26,7 +26,7 @@ export interface LowBand {
 /** Streaming state of a low-band builder; feed blocks in order with pushLowBand. */
 export interface LowBandBuilder {
   factor: number;
-  /** 2 when the factor is even: pairs are averaged before the anti-alias filter. */
+  /** 4 when the factor divides by 4, else 2 when even, else 1: groups of this many samples are averaged before the anti-alias filter. */
   preFactor: number;
   rateHz: number;
   antiAlias: Biquad[];
@@ -38,8 +38,9 @@ export interface LowBandBuilder {
   /** Full-rate samples seen so far. */
   consumed: number;
   scratch: Float32Array;
-  /** A full-rate sample waiting for its pair (NaN when none). */
-  pending: number;
+  /** Full-rate samples waiting for the rest of their group (the first `carried`). */
+  carry: Float32Array;
+  carried: number;
 }
 
 /**
@@ -51,7 +52,7 @@ export interface LowBandBuilder {
 export function createLowBandBuilder(sampleRateHz: number, totalFrames: number, bandHz: number): LowBandBuilder {
   const factor = Math.max(1, Math.floor(sampleRateHz / TARGET_RATE_HZ));
   const rateHz = sampleRateHz / factor;
-  const preFactor = factor % 2 === 0 ? 2 : 1;
+  const preFactor = factor % 4 === 0 ? 4 : factor % 2 === 0 ? 2 : 1;
   const antiAlias = biquadLowpassCascade(ANTI_ALIAS_HZ, sampleRateHz / preFactor, ANTI_ALIAS_ORDER);
   const band = biquadLowpassCascade(bandHz, rateHz, BAND_ORDER);
   return {
@@ -66,47 +67,72 @@ export function createLowBandBuilder(sampleRateHz: number, totalFrames: number, 
     written: 0,
     consumed: 0,
     scratch: new Float32Array(0),
-    pending: NaN,
+    carry: new Float32Array(4),
+    carried: 0,
   };
 }
 
-/** Filters and decimates one block of the full-rate mono signal (linear) into the builder. */
+/**
+ * Filters and decimates one block of the full-rate mono signal (linear) into
+ * the builder. Same samples as pushLowBandInStages, faster when the block
+ * holds whole groups and nothing is carried (what the decoders give).
+ */
 export function pushLowBand(builder: LowBandBuilder, block: Float32Array): void {
-  if (builder.preFactor === 2 && builder.antiAlias.length === 2 && Number.isNaN(builder.pending) && block.length % 2 === 0) {
+  const pre = builder.preFactor;
+  if (builder.antiAlias.length === 2 && builder.carried === 0 && block.length % pre === 0) {
+    const work = pre === 1 ? block : groupMeans(builder, block);
     const start = builder.written;
-    pushPairsFused(builder, block);
+    antiAliasAndPick(builder, work);
+    builder.consumed += block.length;
     // The band filter out here, not inlined into the loop's function, whose optimised code it kept invalidating.
     processCascadeInPlace(builder.band, builder.bandState, builder.out.subarray(start, builder.written));
   } else pushLowBandInStages(builder, block);
 }
 
 /**
- * pushLowBand for the common case (pairs, two anti-alias sections, nothing
- * waiting, an even block) in one pass: pair mean, both biquads and the pick
- * of every D-th sample per pair, only the picks stored (the caller runs the
- * band filter on them). Each stage's result
- * is rounded to float32 (Math.fround) exactly as storing it in the staged
- * path's Float32Array does, so both give the same samples bit for bit
- * (low-band.spec.ts); the two sections' recurrences interleave instead of
- * running one after the other over the block.
+ * Pre-decimation by the builder's group size P with a group mean (a P-tap
+ * boxcar) into the scratch array: w[i] = (1/P)·Σ block[P·i + k], summed in
+ * order and rounded to float32. The 4-tap boxcar (pairs averaged twice) has
+ * nulls at fs/4 and fs/2, the frequencies that fold onto the band when the
+ * rate drops to fs/4: what folds below 150 Hz is at least 37 dB down at
+ * 48 kHz (|sin(4πf/fs) / (4·sin(πf/fs))| at fs/4 − 150 Hz; 43 dB at 96 kHz),
+ * and a kick or bass stem has little at fs/4 to begin with. The cheap
+ * boxcar lets the anti-alias biquads run at a quarter of the rate.
  */
-function pushPairsFused(builder: LowBandBuilder, block: Float32Array): void {
-  const d = builder.factor / 2;
+function groupMeans(builder: LowBandBuilder, block: Float32Array): Float32Array {
+  const pre = builder.preFactor;
+  const n = block.length / pre;
+  if (builder.scratch.length < n) builder.scratch = new Float32Array(n);
+  const work = builder.scratch;
+  if (pre === 4) for (let i = 0, j = 0; i < n; i++, j += 4) work[i] = 0.25 * (block[j]! + block[j + 1]! + block[j + 2]! + block[j + 3]!);
+  else for (let i = 0, j = 0; i < n; i++, j += 2) work[i] = 0.5 * (block[j]! + block[j + 1]!);
+  return work.subarray(0, n);
+}
+
+/**
+ * Both anti-alias sections and the pick of every D-th pre-decimated sample
+ * in one pass over `work`, only the picks stored (the caller runs the band
+ * filter on them). Section one's output is rounded to float32 (Math.fround)
+ * exactly as storing it in the staged path's Float32Array does, so both give
+ * the same samples bit for bit (low-band.spec.ts); the two sections'
+ * recurrences interleave instead of running one after the other.
+ */
+function antiAliasAndPick(builder: LowBandBuilder, work: Float32Array): void {
+  const d = builder.factor / builder.preFactor;
   const st = builder.antiAliasState;
   const out = builder.out;
   const cap = out.length;
-  const start = builder.written;
-  let written = start;
+  let written = builder.written;
   const s1 = builder.antiAlias[0]!;
   const s2 = builder.antiAlias[1]!;
   const p0 = s1.b0, p1 = s1.b1, p2 = s1.b2, q1 = s1.a1, q2 = s1.a2;
   const r0 = s2.b0, r1 = s2.b1, r2 = s2.b2, u1 = s2.a1, u2 = s2.a2;
   let z1 = st[0]!, z2 = st[1]!, w1 = st[2]!, w2 = st[3]!;
-  const pairs = block.length >> 1;
-  // Index (in pairs) of the next pair whose pre-decimated index is a multiple of D.
-  let next = (d - ((builder.consumed / 2) % d)) % d;
-  for (let k = 0; k < pairs; k++) {
-    const x = Math.fround(0.5 * (block[2 * k]! + block[2 * k + 1]!));
+  const n = work.length;
+  // Index (in pre-decimated samples) of the next one whose index is a multiple of D.
+  let next = (d - ((builder.consumed / builder.preFactor) % d)) % d;
+  for (let k = 0; k < n; k++) {
+    const x = work[k]!;
     const y = p0 * x + z1;
     z1 = p1 * x - q1 * y + z2;
     z2 = p2 * x - q2 * y;
@@ -124,29 +150,29 @@ function pushPairsFused(builder: LowBandBuilder, block: Float32Array): void {
   st[2] = w1;
   st[3] = w2;
   builder.written = written;
-  builder.consumed += pairs * 2;
 }
 
-/** pushLowBand stage by stage, for any block; the reference the fused path is held to. */
+/** pushLowBand stage by stage, for any block; the reference the fast path is held to. */
 export function pushLowBandInStages(builder: LowBandBuilder, block: Float32Array): void {
   const pre = builder.preFactor;
-  // Pre-decimation by 2 with a pair mean (a 2-tap boxcar: its null at fs/2
-  // puts what folds onto the band ≥ 40 dB down), so the anti-alias biquads
-  // run at half rate. A sample left over from an odd-length block waits in
-  // `pending` for its partner.
-  const hasPending = pre === 2 && !Number.isNaN(builder.pending);
-  const total = block.length + (hasPending ? 1 : 0);
+  // Group means as groupMeans computes them; samples short of a whole group
+  // wait in `carry` for the next block.
+  const carried = builder.carried;
+  const total = block.length + carried;
   const n = Math.floor(total / pre);
   if (builder.scratch.length < n) builder.scratch = new Float32Array(n);
   const work = builder.scratch.subarray(0, n);
-  if (pre === 2) {
-    const at = (j: number): number => (hasPending ? (j === 0 ? builder.pending : block[j - 1]!) : block[j]!);
-    let i = 0;
-    if (hasPending && n > 0) work[i++] = 0.5 * (builder.pending + block[0]!);
-    const o = hasPending ? 1 : 0;
-    for (; i < n; i++) work[i] = 0.5 * (block[2 * i - o]! + block[2 * i + 1 - o]!);
-    builder.pending = total % 2 === 1 ? at(total - 1) : NaN;
-  } else work.set(block);
+  const at = (j: number): number => (j < carried ? builder.carry[j]! : block[j - carried]!);
+  for (let i = 0; i < n; i++) {
+    const j = i * pre;
+    if (pre === 4) work[i] = 0.25 * (at(j) + at(j + 1) + at(j + 2) + at(j + 3));
+    else if (pre === 2) work[i] = 0.5 * (at(j) + at(j + 1));
+    else work[i] = at(j);
+  }
+  const left = total - n * pre;
+  const rest = Float32Array.from({ length: left }, (_, k) => at(n * pre + k));
+  builder.carry.set(rest);
+  builder.carried = left;
   processCascadeInPlace(builder.antiAlias, builder.antiAliasState, work);
   const d = builder.factor / pre;
   const consumed = builder.consumed / pre;
@@ -160,9 +186,9 @@ export function pushLowBandInStages(builder: LowBandBuilder, block: Float32Array
 
 /** How many low-band samples a builder gives for `totalFrames` full-rate samples (what finishLowBand will hold). */
 export function lowBandLength(builder: Pick<LowBandBuilder, 'factor' | 'preFactor'>, totalFrames: number): number {
-  const pairs = Math.floor(totalFrames / builder.preFactor);
+  const groups = Math.floor(totalFrames / builder.preFactor);
   const d = builder.factor / builder.preFactor;
-  return Math.min(Math.ceil(pairs / d), Math.ceil(totalFrames / builder.factor));
+  return Math.min(Math.ceil(groups / d), Math.ceil(totalFrames / builder.factor));
 }
 
 /** The finished low band. */
@@ -173,7 +199,7 @@ export function finishLowBand(builder: LowBandBuilder): LowBand {
 /** The low band of a whole signal in one call (same filters as the streaming builder). */
 export function lowBandOf(mono: Float32Array, sampleRateHz: number, bandHz: number): LowBand {
   const builder = createLowBandBuilder(sampleRateHz, mono.length, bandHz);
-  const step = 1 << 16; // even, so blocks hold whole pairs
+  const step = 1 << 16; // a multiple of 4, so blocks hold whole groups
   for (let i = 0; i < mono.length; i += step) pushLowBand(builder, mono.subarray(i, i + step));
   return finishLowBand(builder);
 }

@@ -23,7 +23,7 @@ const ORDER = 4;
 
 /**
  * The running covariance sums restart from zero every this many frames (8 s
- * on the 1 ms grid): float64 sums that slide over a whole song would carry
+ * on the 1 ms grid): float64 prefix sums over a whole song would carry
  * their rounding from the first frame to the last, and a block that starts
  * afresh can be computed on its own (server/audio/detection-split.ts computes
  * the second half of a song on another thread with the same result).
@@ -37,7 +37,8 @@ export const ONSET_BLOCK_FRAMES = 8192;
  * (covariance method, ridge 1e-6·trace); E_before is its mean squared error
  * there, E_after the mean squared error of the same predictor on the
  * `windowSamples` from s. riseDb = max(0, 10·log10((E_after + ε)/(E_before + ε))),
- * ε = (−80 dBFS)². The covariance sums slide, so the cost is O(N·order²).
+ * ε = (−80 dBFS)². Every sum comes from prefix sums of lagged products, so
+ * the cost is O(N·order) plus a 4×4 solve per frame.
  * @param x low band, linear full scale
  * @param hopSamples frame hop in samples of x
  * @param fitSamples length of the fitting window before each frame

@@ -1,4 +1,4 @@
-import { biquadLowpass, cascadeState, processCascadeInPlace } from './biquad';
+import { biquadLowpass, type Biquad } from './biquad';
 
 /**
  * Sample-accurate onset by a variance change point: the Akaike Information
@@ -17,6 +17,16 @@ import { biquadLowpass, cascadeState, processCascadeInPlace } from './biquad';
  * per thread; a worker has its own module instance).
  */
 const pool = { sum: new Float64Array(0), sumSq: new Float64Array(0), err: new Float32Array(0), seg: new Float32Array(0), dec: new Float32Array(0) };
+/** The normal equations' scratch by predictor order (m: p², r, lag: p + 1, coef, hist: p). */
+const solverPool = new Map<number, { m: Float64Array; r: Float64Array; lag: Float64Array; coef: Float64Array; hist: Float64Array }>();
+function solverScratch(p: number): { m: Float64Array; r: Float64Array; lag: Float64Array; coef: Float64Array; hist: Float64Array } {
+  let s = solverPool.get(p);
+  if (!s) {
+    s = { m: new Float64Array(p * p), r: new Float64Array(p), lag: new Float64Array(p + 1), coef: new Float64Array(p), hist: new Float64Array(p) };
+    solverPool.set(p, s);
+  }
+  return s;
+}
 function f64(name: 'sum' | 'sumSq', n: number): Float64Array {
   if (pool[name].length < n) pool[name] = new Float64Array(Math.max(n, 2 * pool[name].length));
   return pool[name];
@@ -102,13 +112,11 @@ export function arAicChangePoint(x: Float32Array, startSample: number, endSample
   const count = a - fitStart;
   if (count < 4 * order) return aicChangePoint(x, a, b);
   const p = order;
-  const m = new Float64Array(p * p);
-  const r = new Float64Array(p);
+  const { m, r, lag, coef, hist } = solverScratch(p);
   // Covariance method from lagged sums: L[d] = Σ_{u∈[fitStart, a)} x[u]·x[u−d];
   // entry (j, k≥j) = Σ_u x[u−1−j]·x[u−1−k] is L[k−j] with the window shifted
   // by j+1 samples (drop j+1 terms at the end, add j+1 before the start).
   // O(count·p) instead of O(count·p²).
-  const lag = new Float64Array(p + 1);
   for (let d = 0; d <= p; d++) {
     let sum = 0;
     for (let u = fitStart; u < a; u++) sum += x[u]! * x[u - d]!;
@@ -131,14 +139,12 @@ export function arAicChangePoint(x: Float32Array, startSample: number, endSample
   }
   const ridge = (ridgeRelative * trace) / p + 1e-15;
   for (let j = 0; j < p; j++) m[j * p + j]! += ridge;
-  const coef = new Float64Array(p);
   choleskySolve(m, r, coef, p);
   const n = b - a;
   const err = f32('err', n);
   if (freeRun) {
     // Extrapolate what was sounding (the predictor run on its own output) and
     // subtract it: what is left before the hit is noise, after it the new hit.
-    const hist = new Float64Array(p);
     for (let k = 0; k < p; k++) hist[k] = x[a - 1 - k]!;
     for (let i = 0; i < n; i++) {
       let pred = 0;
@@ -149,12 +155,40 @@ export function arAicChangePoint(x: Float32Array, startSample: number, endSample
     }
     return a + aicChangePoint(err, 0, n);
   }
-  for (let i = 0; i < n; i++) {
-    let pred = 0;
-    for (let k = 0; k < p; k++) pred += coef[k]! * x[a + i - 1 - k]!;
-    err[i] = x[a + i]! - pred;
+  if (p === 8) predictionError8(x, a, n, coef, err);
+  else {
+    for (let i = 0; i < n; i++) {
+      let pred = 0;
+      for (let k = 0; k < p; k++) pred += coef[k]! * x[a + i - 1 - k]!;
+      err[i] = x[a + i]! - pred;
+    }
   }
   return a + aicChangePoint(err, 0, n);
+}
+
+/**
+ * err[i] = x[a + i] − Σ_{k<8} coef[k]·x[a + i − 1 − k] for i < n: the general
+ * loop unrolled for the full-rate picker's order, coefficients and the eight
+ * previous samples in locals, the terms added in the same order (same
+ * result bit for bit). A sample's sum does not wait for the previous one's,
+ * so the unrolled loop runs several samples at once.
+ */
+export function predictionError8(x: Float32Array, a: number, n: number, coef: Float64Array, err: Float32Array): void {
+  const k0 = coef[0]!, k1 = coef[1]!, k2 = coef[2]!, k3 = coef[3]!, k4 = coef[4]!, k5 = coef[5]!, k6 = coef[6]!, k7 = coef[7]!;
+  let m1 = x[a - 1]!, m2 = x[a - 2]!, m3 = x[a - 3]!, m4 = x[a - 4]!, m5 = x[a - 5]!, m6 = x[a - 6]!, m7 = x[a - 7]!, m8 = x[a - 8]!;
+  for (let i = 0; i < n; i++) {
+    const x0 = x[a + i]!;
+    const pred = k0 * m1 + k1 * m2 + k2 * m3 + k3 * m4 + k4 * m5 + k5 * m6 + k6 * m7 + k7 * m8;
+    err[i] = x0 - pred;
+    m8 = m7;
+    m7 = m6;
+    m6 = m5;
+    m5 = m4;
+    m4 = m3;
+    m3 = m2;
+    m2 = m1;
+    m1 = x0;
+  }
 }
 
 /** Solves M·a = b (p×p symmetric positive-definite, row-major, overwritten) by Cholesky; zeros if not positive-definite. */
@@ -211,17 +245,55 @@ export function refineOnsetSample(x: Float32Array, sampleRateHz: number, startSa
   const segStart = Math.max(0, startSample - fit - pad);
   const segEnd = Math.min(x.length, endSample + pad);
   const seg = f32('seg', segEnd - segStart);
-  seg.set(x.subarray(segStart, segEnd));
-  const lp = [biquadLowpass(REFINE_LOWPASS_HZ, sampleRateHz, Math.SQRT1_2)];
-  processCascadeInPlace(lp, cascadeState(lp), seg);
-  seg.reverse();
-  processCascadeInPlace(lp, cascadeState(lp), seg);
-  seg.reverse();
   const offset = (startSample - segStart) % factor;
   const dec = f32('dec', Math.floor((seg.length - offset) / factor));
-  for (let i = 0; i < dec.length; i++) dec[i] = seg[offset + i * factor]!;
+  zeroPhaseDecimate(x, segStart, lowpassAt(sampleRateHz), seg, factor, offset, dec);
   const a = Math.floor((startSample - segStart - offset) / factor);
   const b = Math.floor((endSample - segStart - offset) / factor);
   const idx = arAicChangePoint(dec, a, b, Math.round(fit / factor), REFINE_ORDER, REFINE_RIDGE, true);
   return segStart + offset + idx * factor;
+}
+
+/** The robust picker's low-pass by sample rate (a song's refinement asks for the same one hundreds of times). */
+const lowpassByRate = new Map<number, Biquad>();
+function lowpassAt(sampleRateHz: number): Biquad {
+  let lp = lowpassByRate.get(sampleRateHz);
+  if (!lp) lowpassByRate.set(sampleRateHz, (lp = biquadLowpass(REFINE_LOWPASS_HZ, sampleRateHz, Math.SQRT1_2)));
+  return lp;
+}
+
+/**
+ * dec[j] = y[offset + j·factor], y = x[from, from + seg.length) filtered by
+ * `lp` forwards and then backwards (zero phase), each pass from rest in
+ * transposed direct form II with its output rounded to float32, exactly as
+ * processCascadeInPlace on a copy, reversed, filtered again and reversed
+ * back gives it; the backward pass runs from the end instead of reversing,
+ * and keeps only the samples the decimation picks. `seg` is scratch.
+ */
+export function zeroPhaseDecimate(x: Float32Array, from: number, lp: Biquad, seg: Float32Array, factor: number, offset: number, dec: Float32Array): void {
+  const { b0, b1, b2, a1, a2 } = lp;
+  const n = seg.length;
+  let z1 = 0;
+  let z2 = 0;
+  for (let i = 0; i < n; i++) {
+    const v = x[from + i]!;
+    const y = b0 * v + z1;
+    z1 = b1 * v - a1 * y + z2;
+    z2 = b2 * v - a2 * y;
+    seg[i] = y;
+  }
+  z1 = 0;
+  z2 = 0;
+  let j = dec.length - 1;
+  let pick = offset + j * factor; // the next index the decimation keeps, going down
+  for (let i = n - 1; i >= 0; i--) {
+    const v = seg[i]!;
+    const y = b0 * v + z1;
+    z1 = b1 * v - a1 * y + z2;
+    z2 = b2 * v - a2 * y;
+    if (i === pick) {
+      dec[j--] = y;
+      pick -= factor;
+    }
+  }
 }
