@@ -23,12 +23,13 @@ import { AudioInputError } from './audio-errors';
  * the two halves join exactly as one pass would. The split falls on the onset
  * function's block grid (ONSET_BLOCK_FRAMES), where its sums restart anyway.
  *
- * Neither thread keeps the full-rate mono mixdown while decoding (writing
- * 58 MB of fresh memory was a tenth of the time): refinement reads only a
- * window around each candidate, so each thread decodes those windows again
- * into its own, mostly untouched, full-length array (fillWindows). The
- * one-thread path (server/audio/kick-detection.ts) reads the same way, with
- * decodeRangeSync and fillWindows from here.
+ * Neither thread keeps the full-rate mono mixdown (writing 58 MB of fresh
+ * memory was a tenth of the time; each first-touched page costs ~10 µs on
+ * this machine): refinement reads only a window around each candidate, so
+ * each thread decodes those windows again, one at a time, into a small
+ * scratch array (refineFromFile). The one-thread path
+ * (server/audio/kick-detection.ts) reads the same way, with decodeRangeSync
+ * and refineFromFile from here.
  * The equality with the single-thread path is a test
  * (test/reference/detection-split.test.ts). Opt-in (detectKickFile's
  * `threads: 2`, the CLI's `--threads 2`): on this project's 2-vCPU machine
@@ -138,38 +139,66 @@ function readExactly(fd: number, bytes: Uint8Array, length: number, offset: numb
 }
 
 /**
- * Decodes the mono mixdown around candidates [from, to) into `mono` (a
- * full-length array, left zero elsewhere): from refinementReach's `before`
- * to its `after` around each candidate's frame, overlapping windows read once.
+ * The stretches of the song refinement reads for candidates [from, to):
+ * refinementReach around each candidate's frame, overlapping ones merged.
+ * Each is [first frame, end frame, first candidate, end candidate).
  */
-export function fillWindows(path: string, layout: WavLayout, mono: Float32Array, candidates: readonly Candidate[], from: number, to: number): void {
+export function refinementWindows(layout: WavLayout, candidates: readonly Candidate[], from: number, to: number): Array<[number, number, number, number]> {
   const reach = refinementReach(layout.sampleRateHz);
+  const windows: Array<[number, number, number, number]> = [];
+  for (let k = from; k < to; k++) {
+    const s = candidates[k]!.frameSample;
+    const lo = Math.max(0, s - reach.before);
+    const hi = Math.min(layout.frames, s + reach.after);
+    const last = windows[windows.length - 1];
+    if (last && lo <= last[1]) {
+      last[1] = Math.max(last[1], hi);
+      last[3] = k + 1;
+    } else windows.push([lo, hi, k, k + 1]);
+  }
+  return windows;
+}
+
+/**
+ * Refinement (shared/dsp/onsets.ts refineCandidates) of candidates [from, to)
+ * straight from the file: each window of refinementWindows is decoded into
+ * one reused scratch array and its candidates refined there, so the
+ * full-rate mixdown is never held (on this machine first touching a
+ * song-length array cost more than decoding into it). Gives what
+ * refineCandidates gives on the whole mixdown (test/reference/detection-split.test.ts).
+ */
+export function refineFromFile(
+  path: string,
+  layout: WavLayout,
+  band: LowBand,
+  candidates: readonly Candidate[],
+  from: number,
+  to: number,
+  previousEnd: number,
+  opts: DetectionOptions,
+): RefinedOnset[] {
+  const kept: RefinedOnset[] = [];
   const fd = openSync(path, 'r');
   let bytes = new Uint8Array(0);
-  const decode = (a: number, b: number): void => {
-    const length = (b - a) * layout.blockAlign;
-    if (bytes.length < length) bytes = new Uint8Array(Math.max(length, 2 * bytes.length));
-    readExactly(fd, bytes, length, layout.dataOffsetBytes + a * layout.blockAlign);
-    decodeMonoBlockInto(layout, bytes.subarray(0, length), mono, a);
-  };
+  let mono = new Float32Array(0);
   try {
-    let a = -1;
-    let b = -1;
-    for (let k = from; k < to; k++) {
-      const s = candidates[k]!.frameSample;
-      const lo = Math.max(0, s - reach.before);
-      const hi = Math.min(layout.frames, s + reach.after);
-      if (lo <= b) b = Math.max(b, hi);
-      else {
-        if (b > a) decode(a, b);
-        a = lo;
-        b = hi;
+    for (const [lo, hi, k0, k1] of refinementWindows(layout, candidates, from, to)) {
+      const frames = hi - lo;
+      const length = frames * layout.blockAlign;
+      if (bytes.length < length) {
+        bytes = new Uint8Array(Math.max(length, 2 * bytes.length));
+        mono = new Float32Array(bytes.length / layout.blockAlign);
       }
+      readExactly(fd, bytes, length, layout.dataOffsetBytes + lo * layout.blockAlign);
+      decodeMonoBlockInto(layout, bytes.subarray(0, length), mono, 0);
+      const refined = refineCandidates({ samples: mono.subarray(0, frames), start: lo }, band, candidates, k0, k1, previousEnd, layout.sampleRateHz, opts);
+      for (const r of refined) kept.push(r);
+      if (refined.length > 0) previousEnd = refined[refined.length - 1]!.sample + 1;
     }
-    if (b > a) decode(a, b);
   } finally {
     closeSync(fd);
   }
+  return kept;
 }
 
 /**
@@ -220,12 +249,10 @@ export interface TailWorker {
   done: { tail: boolean; refine: boolean };
 }
 
-/** Refines candidates [from, end) with previousEnd 0 (see independentFrom), the mono windows decoded first. */
+/** Refines candidates [from, end) with previousEnd 0 (see independentFrom), straight from the file. */
 export function refineTail(job: TailJob, request: RefineRequest): RefinedOnset[] {
   const { candidates, from, band, opts } = request;
-  const mono = new Float32Array(job.layout.frames);
-  fillWindows(job.path, job.layout, mono, candidates, from, candidates.length);
-  return refineCandidates(mono, band, candidates, from, candidates.length, 0, job.layout.sampleRateHz, opts);
+  return refineFromFile(job.path, job.layout, band, candidates, from, candidates.length, 0, opts);
 }
 
 /**

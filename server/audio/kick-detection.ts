@@ -6,7 +6,7 @@ import { createLowBandBuilder, finishLowBand, lowBandLength, pushLowBand, type L
 import { findCandidates, finishHits, independentFrom, medianRadiusFrames, onsetGeometry, refineCandidates, type Candidate } from '../../shared/dsp/onsets';
 import { MEDIAN_STRIDE, movingMedianInto } from '../../shared/dsp/peak-pick';
 import { ONSET_BLOCK_FRAMES, predictionOnsetFrames, predictionOnsetFunction, type PredictionOnsetFunction } from '../../shared/dsp/onset-function';
-import { decodeRangeSync, fillWindows, splitPlan, startTailWorker } from './detection-split';
+import { decodeRangeSync, refineFromFile, splitPlan, startTailWorker } from './detection-split';
 import { MidiFormatError, readMidiKicks } from '../../shared/formats/midi-read';
 import { sniffNonWav } from '../../shared/formats/wav-header';
 import { AudioInputError } from './audio-errors';
@@ -90,9 +90,7 @@ export async function detectKickFile(path: string, opts: DetectKickOptions = {})
     const lowBand = finishLowBand(band);
     const odf = predictionOnsetFunction(lowBand.samples, geometry.hopSamples, geometry.fitSamples, geometry.windowSamples);
     const candidates = findCandidates(lowBand, odf, detection);
-    const mono = new Float32Array(frames);
-    fillWindows(path, wav.layout, mono, candidates, 0, candidates.length);
-    const kept = refineCandidates(mono, lowBand, candidates, 0, candidates.length, 0, sampleRate, detection);
+    const kept = refineFromFile(path, wav.layout, lowBand, candidates, 0, candidates.length, 0, detection);
     return { source: 'audio', sampleRate, durationSec: wav.info.durationSec, hits: finishHits(kept, lowBand, sampleRate, detection) };
   } finally {
     await wav.close();
@@ -146,10 +144,8 @@ async function detectOnTwoThreads(
     const second = cut < candidates.length ? helper.refine({ candidates, from: cut, band: lowBand, opts: detection }) : Promise.resolve([]);
     if (cut === candidates.length) helper.close();
     second.catch(() => undefined);
-    // Refinement reads the signal only near the candidates: decode just that, into an otherwise untouched array.
-    const mono = new Float32Array(frames);
-    fillWindows(path, wav.layout, mono, candidates, 0, cut);
-    const first = refineCandidates(mono, lowBand, candidates, 0, cut, 0, sampleRate, detection);
+    // Refinement reads the signal only near the candidates: decode just that.
+    const first = refineFromFile(path, wav.layout, lowBand, candidates, 0, cut, 0, detection);
     return finishHits([...first, ...(await second)], lowBand, sampleRate, detection);
   } finally {
     helper.close();

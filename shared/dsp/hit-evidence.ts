@@ -39,16 +39,17 @@ export function sustainDb(band: LowBand, atLowSample: number): number {
  * ΔE_high = E_high[0, 30 ms) − E_high[−30, 0 ms) with E_high = E_full − E_low,
  * over E_low[0, 30 ms). A snare or clap on a ringing kick tail brings much
  * new energy above the band and little in it; a kick the reverse.
- * @param mono full-rate signal, linear
- * @param band its low band
- * @param atSample onset, full-rate sample index
+ * @param mono full-rate signal, linear, from sample `monoStart` of the song on
+ * @param band its low band (the whole song's)
+ * @param atSample onset, full-rate sample index of the song
  */
-export function newHighBandDb(mono: Float32Array, band: LowBand, atSample: number, sampleRateHz: number): number {
+export function newHighBandDb(mono: Float32Array, monoStart: number, band: LowBand, atSample: number, sampleRateHz: number): number {
   const w = Math.round(NEW_HIGH_WINDOW_SEC * sampleRateHz);
   const low = (a: number, b: number): number => meanSquare(band.samples, Math.floor(a / band.factor), Math.floor(b / band.factor));
   const lowAfter = low(atSample, atSample + w);
-  const highAfter = Math.max(0, meanSquare(mono, atSample, atSample + w) - lowAfter);
-  const highBefore = Math.max(0, meanSquare(mono, atSample - w, atSample) - low(atSample - w, atSample));
+  const m = atSample - monoStart;
+  const highAfter = Math.max(0, meanSquare(mono, m, m + w) - lowAfter);
+  const highBefore = Math.max(0, meanSquare(mono, m - w, m) - low(atSample - w, atSample));
   return 10 * Math.log10((Math.max(0, highAfter - highBefore) + TINY) / (lowAfter + TINY));
 }
 

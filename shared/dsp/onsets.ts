@@ -159,7 +159,7 @@ export function detectOnsetsFromFunction(
   trace?: (candidate: CandidateTrace) => void,
 ): Hit[] {
   const candidates = findCandidates(band, odf, opts, tuning);
-  const kept = refineCandidates(mono, band, candidates, 0, candidates.length, 0, sampleRateHz, opts, tuning, trace);
+  const kept = refineCandidates({ samples: mono, start: 0 }, band, candidates, 0, candidates.length, 0, sampleRateHz, opts, tuning, trace);
   return finishHits(kept, band, sampleRateHz, opts, tuning);
 }
 
@@ -173,6 +173,16 @@ export interface Candidate {
   rise: number;
   /** innovation / reference, dB. */
   innovationDb: number;
+}
+
+/**
+ * A stretch of the full-rate mono mixdown: samples[i] is sample start + i
+ * of the song. Refinement reads only around the candidates, so a caller may
+ * hand it just those windows (server/audio/detection-split.ts refineFromFile).
+ */
+export interface MonoSpan {
+  samples: Float32Array;
+  start: number;
 }
 
 /** A refined kick onset before the minimum-gap merge (steps 4–5). */
@@ -235,7 +245,7 @@ export function findCandidates(
  * (independentFrom), which lets two threads refine two halves.
  */
 export function refineCandidates(
-  mono: Float32Array,
+  span: MonoSpan,
   band: LowBand,
   candidates: readonly Candidate[],
   from: number,
@@ -252,27 +262,32 @@ export function refineCandidates(
   const before = Math.round(t.refineBeforeSec * sampleRateHz);
   const after = Math.round(t.refineAfterSec * sampleRateHz);
   const fitSamples = Math.round(t.fitSec * sampleRateHz);
+  // Sample indexes below are of the song; mono[i − at] holds sample i. The
+  // span must hold refinementReach around every candidate, and then reads
+  // the same samples the whole mixdown would.
+  const mono = span.samples;
+  const at = span.start;
   for (let k = from; k < to; k++) {
     const { frame, frameSample, rise, innovationDb } = candidates[k]!;
     const start = Math.max(previousEnd, frameSample - before);
-    const end = Math.min(mono.length, frameSample + after);
-    let sample = arAicChangePoint(mono, start, end, fitSamples, t.refineOrder, t.refineRidge);
+    const end = Math.min(at + mono.length, frameSample + after);
+    let sample = at + arAicChangePoint(mono, start - at, end - at, fitSamples, t.refineOrder, t.refineRidge);
     // The full-rate picker can lock onto a later broadband event (a room's
     // tail) when a low, soft kick starts under noise; the 4 kHz picker sees
     // the body. Take it when it is clearly earlier, keeps the minimum gap and
     // the energy jumps more there.
-    const robust = refineOnsetSample(mono, sampleRateHz, start, end, t.fitSec);
+    const robust = at + refineOnsetSample(mono, sampleRateHz, start - at, end - at, t.fitSec);
     const disagree = Math.abs(sample - robust) > t.disagreeSec * sampleRateHz;
     if (disagree && robust - previousEnd >= minGapSamples) {
       const half = Math.round(t.fineSec * sampleRateHz);
-      const fine = arAicChangePoint(mono, Math.max(start, robust - half), Math.min(end, robust + half), fitSamples, t.refineOrder, t.refineRidge);
+      const fine = at + arAicChangePoint(mono, Math.max(start, robust - half) - at, Math.min(end, robust + half) - at, fitSamples, t.refineOrder, t.refineRidge);
       // Earlier is safer for a tuck, so a later alternative may be asked to win clearly.
       const margin = fine < sample ? 0 : t.laterMarginDb;
-      if (energyJumpDb(mono, fine, sampleRateHz, t.jumpSec) > energyJumpDb(mono, sample, sampleRateHz, t.jumpSec) + margin) sample = fine;
+      if (energyJumpDb(mono, fine - at, sampleRateHz, t.jumpSec) > energyJumpDb(mono, sample - at, sampleRateHz, t.jumpSec) + margin) sample = fine;
     }
     if (lowBandPeak(band, sample, t.strengthSpanSec) < 10 ** (t.minLowPeakDbfs / 20)) continue;
     const sustain = sustainDb(band, Math.floor(sample / band.factor));
-    const newHigh = sustain >= t.minSustainDb ? -Infinity : newHighBandDb(mono, band, sample, sampleRateHz);
+    const newHigh = sustain >= t.minSustainDb ? -Infinity : newHighBandDb(mono, at, band, sample, sampleRateHz);
     const isKick =
       sustain >= t.minSustainDb ||
       (newHigh < t.tailMaxHighDb &&
@@ -291,7 +306,7 @@ export function refineCandidates(
  * the predictor's fit (fitSec and its order) or the 4 kHz picker's fit and
  * pad, and around any answer the energy jump and the new-high-band windows.
  * Rounded up by 10 ms. A caller may decode only these windows
- * (server/audio/detection-split.ts fillWindows).
+ * (server/audio/detection-split.ts refineFromFile).
  */
 export function refinementReach(sampleRateHz: number, tuning: DetectionTuning = DETECTION_TUNING): { before: number; after: number } {
   const t = tuning;
