@@ -1,8 +1,8 @@
 import { closeSync, openSync, readSync } from 'node:fs';
 import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
 import type { WavLayout } from '../../shared/formats/wav-header';
-import { decodeMonoBlockInto, wavDataBlocks } from '../../shared/formats/wav-read';
-import { createLowBandBuilder, pushLowBand, type LowBandBuilder } from '../../shared/dsp/low-band';
+import { decodeMonoBlockInto, decodeStereo24QuadMeansInto, wavDataBlocks } from '../../shared/formats/wav-read';
+import { createLowBandBuilder, pushGroupMeans, pushLowBand, type LowBandBuilder } from '../../shared/dsp/low-band';
 import { ONSET_BLOCK_FRAMES, predictionOnsetFrames, type PredictionOnsetFunction } from '../../shared/dsp/onset-function';
 import { refineCandidates, refinementReach, type Candidate, type RefinedOnset } from '../../shared/dsp/onsets';
 import type { LowBand } from '../../shared/dsp/low-band';
@@ -107,6 +107,16 @@ export function decodeRangeSync(path: string, layout: WavLayout, from: number, t
   const blockFrames = Math.max(BLOCK_FRAME_MULTIPLE, Math.floor(READ_BLOCK_BYTES / layout.blockAlign / BLOCK_FRAME_MULTIPLE) * BLOCK_FRAME_MULTIPLE);
   const bytes = new Uint8Array(blockFrames * layout.blockAlign);
   const block = new Float32Array(blockFrames);
+  // Stereo 24-bit decodes straight to the low band's four-frame means; other layouts through the mono mixdown.
+  const quads = builder.preFactor === 4 && layout.channels === 2 && layout.bitsPerSample === 24 && layout.sampleFormat === 'int';
+  const push = (part: Uint8Array): void => {
+    if (quads) {
+      const groups = decodeStereo24QuadMeansInto(layout, part, block, 0);
+      if (groups >= 0 && pushGroupMeans(builder, block.subarray(0, groups))) return;
+    }
+    const n = decodeMonoBlockInto(layout, part, block, 0);
+    pushLowBand(builder, block.subarray(0, n));
+  };
   const fd = openSync(path, 'r');
   try {
     let primed = false;
@@ -118,15 +128,12 @@ export function decodeRangeSync(path: string, layout: WavLayout, from: number, t
         // of the decoder and the filters once before the long one gets
         // optimised mid-loop, which otherwise meets operations it has no type
         // feedback for and falls back to the interpreter for the rest of a
-        // 1 MiB block, several times over. Same samples either way.
+        // block. Same samples either way.
         primed = true;
-        const head = Math.min(length, PRIME_FRAMES * layout.blockAlign);
-        const n = decodeMonoBlockInto(layout, bytes.subarray(0, head), block, 0);
-        pushLowBand(builder, block.subarray(0, n));
-        at = head;
+        at = Math.min(length, PRIME_FRAMES * layout.blockAlign);
+        push(bytes.subarray(0, at));
       }
-      const n = decodeMonoBlockInto(layout, bytes.subarray(at, length), block, 0);
-      pushLowBand(builder, block.subarray(0, n));
+      push(bytes.subarray(at, length));
     }
   } finally {
     closeSync(fd);

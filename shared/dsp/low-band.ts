@@ -79,14 +79,25 @@ export function createLowBandBuilder(sampleRateHz: number, totalFrames: number, 
  */
 export function pushLowBand(builder: LowBandBuilder, block: Float32Array): void {
   const pre = builder.preFactor;
-  if (builder.antiAlias.length === 2 && builder.carried === 0 && block.length % pre === 0) {
-    const work = pre === 1 ? block : groupMeans(builder, block);
-    const start = builder.written;
-    antiAliasAndPick(builder, work);
-    builder.consumed += block.length;
-    // The band filter out here, not inlined into the loop's function, whose optimised code it kept invalidating.
-    processCascadeInPlace(builder.band, builder.bandState, builder.out.subarray(start, builder.written));
-  } else pushLowBandInStages(builder, block);
+  const whole = builder.antiAlias.length === 2 && builder.carried === 0 && block.length % pre === 0;
+  if (!whole || !pushGroupMeans(builder, pre === 1 ? block : groupMeans(builder, block))) pushLowBandInStages(builder, block);
+}
+
+/**
+ * Pushes group means already computed (P full-rate samples each, the first
+ * starting a group), as a decoder that averages while it decodes gives them
+ * (shared/formats/wav-read.ts decodeStereo24QuadMeansInto). False, and
+ * nothing pushed, when the builder cannot take them (samples carried, or
+ * not two anti-alias sections): push full-rate samples instead.
+ */
+export function pushGroupMeans(builder: LowBandBuilder, means: Float32Array): boolean {
+  if (builder.antiAlias.length !== 2 || builder.carried !== 0) return false;
+  const start = builder.written;
+  antiAliasAndPick(builder, means);
+  builder.consumed += means.length * builder.preFactor;
+  // The band filter out here, not inlined into the loop's function, whose optimised code it kept invalidating.
+  processCascadeInPlace(builder.band, builder.bandState, builder.out.subarray(start, builder.written));
+  return true;
 }
 
 /**

@@ -141,5 +141,41 @@ function decodeStereo24Into(block: Uint8Array, frames: number, out: Float32Array
   return frames;
 }
 
+/**
+ * Means of groups of four frames of the mono mixdown, straight from the
+ * bytes of a stereo 24-bit block: out[offset + g] = Σ of the eight samples
+ * of frames 4g … 4g + 3 / (8·2^23), rounded once to float32 — what
+ * decodeMonoBlockInto then a four-sample mean (shared/dsp/low-band.ts)
+ * give, to one float32 rounding (equal bit for bit whenever a frame's two
+ * samples sum below 2^24). One pass instead of two, and no mono block: the
+ * speed path of detection's decode (server/audio/detection-split.ts).
+ * Needs a whole number of groups in a 4-byte-aligned block on a
+ * little-endian machine; returns the groups decoded, or -1 when this block
+ * or layout has no fast path (decode it the general way).
+ */
+export function decodeStereo24QuadMeansInto(layout: WavLayout, block: Uint8Array, out: Float32Array, offset: number): number {
+  const frames = Math.floor(block.length / layout.blockAlign);
+  if (!LITTLE_ENDIAN || layout.sampleFormat !== 'int' || layout.bitsPerSample !== 24 || layout.channels !== 2 || frames % 4 !== 0 || block.byteOffset % 4 !== 0) return -1;
+  const groups = frames / 4;
+  const words = new Int32Array(block.buffer, block.byteOffset, groups * 6);
+  const scale = 1 / 67108864; // 1 / (8 · 2^23)
+  // Four frames are 24 bytes, six words; each three words hold two frames as in decodeStereo24Into.
+  for (let g = 0, k = 0; g < groups; g++, k += 6) {
+    const w0 = words[k]!, w1 = words[k + 1]!, w2 = words[k + 2]!;
+    const w3 = words[k + 3]!, w4 = words[k + 4]!, w5 = words[k + 5]!;
+    const sum =
+      ((w0 << 8) >> 8) +
+      ((((w0 >>> 24) | (w1 << 8)) << 8) >> 8) +
+      ((((w1 >>> 16) | (w2 << 16)) << 8) >> 8) +
+      (w2 >> 8) +
+      ((w3 << 8) >> 8) +
+      ((((w3 >>> 24) | (w4 << 8)) << 8) >> 8) +
+      ((((w4 >>> 16) | (w5 << 16)) << 8) >> 8) +
+      (w5 >> 8);
+    out[offset + g] = sum * scale;
+  }
+  return groups;
+}
+
 /** Int32Array views read little-endian words only on a little-endian machine. */
 const LITTLE_ENDIAN = new Uint8Array(Uint16Array.of(1).buffer)[0] === 1;
