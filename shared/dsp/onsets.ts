@@ -305,13 +305,14 @@ export function refineCandidates(
  * frame, in samples: the search window (refineBefore…refineAfter), before it
  * the predictor's fit (fitSec and its order) or the 4 kHz picker's fit and
  * pad, and around any answer the energy jump and the new-high-band windows.
- * Rounded up by 10 ms. A caller may decode only these windows
+ * Plus 2 ms, for the predictors' lags (twice the order, 16 samples) and
+ * rounding. A caller may decode only these windows
  * (server/audio/detection-split.ts refineFromFile).
  */
 export function refinementReach(sampleRateHz: number, tuning: DetectionTuning = DETECTION_TUNING): { before: number; after: number } {
   const t = tuning;
   const around = Math.max(t.jumpSec, NEW_HIGH_WINDOW_SEC, REFINE_PAD_SEC);
-  const margin = 0.01;
+  const margin = 0.002;
   return {
     before: Math.ceil((t.refineBeforeSec + Math.max(t.fitSec + REFINE_PAD_SEC, around) + margin) * sampleRateHz),
     after: Math.ceil((t.refineAfterSec + around + margin) * sampleRateHz),
