@@ -44,8 +44,18 @@ export function movingMedianInto(
     const lo = Math.max(0, centre - radius);
     const hi = Math.min(n, centre + radius + 1);
     const len = hi - lo;
-    for (let i = 0; i < len; i++) scratch[i] = values[lo - valuesStart + i]!;
-    const median = selectKth(scratch, len, len >> 1);
+    const k = len >> 1;
+    // An onset function of rises is zero wherever nothing rises, often for
+    // most of a window: with more than k zeros the k-th smallest is 0
+    // (fewer than len − k ≤ k + 1 values are left to sit below them), and no
+    // selection is needed.
+    let zeros = 0;
+    for (let i = 0; i < len; i++) {
+      const v = values[lo - valuesStart + i]!;
+      scratch[i] = v;
+      if (v === 0) zeros++;
+    }
+    const median = zeros > k ? 0 : selectKth(scratch, len, k);
     out.fill(median, centre - outStart, Math.min(n, centre + stride) - outStart);
   }
 }
