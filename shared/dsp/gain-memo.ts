@@ -1,5 +1,5 @@
 /** ln10/20 per dB: 10^(G/20) = e^(G·ln10/20) (the decibel for amplitude quantities, IEC 60027-3). */
-const NEPER_PER_DB = Math.LN10 / 20;
+export const NEPER_PER_DB = Math.LN10 / 20;
 
 /** Slots of a memo (a power of two: 2^12). */
 const SLOTS = 4096;
@@ -37,5 +37,10 @@ export class DbMemo {
  * long here and differs by a few ulps.
  */
 export function amplitudeMemo(): DbMemo {
-  return new DbMemo((gainDb) => Math.exp(gainDb * NEPER_PER_DB));
+  return new DbMemo(amplitude);
+}
+
+// One function for every memo, not a closure per memo: `DbMemo.of` is optimised for the functions it has seen called.
+function amplitude(gainDb: number): number {
+  return Math.exp(gainDb * NEPER_PER_DB);
 }

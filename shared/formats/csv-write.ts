@@ -1,5 +1,5 @@
 import { curveArrays, type GainCurve } from '../dsp/gain-curve';
-import { amplitudeMemo, type DbMemo } from '../dsp/gain-memo';
+import { NEPER_PER_DB } from '../dsp/gain-memo';
 import { csvExportOptionsSchema, type CsvExportOptionsInput } from '../schemas/export-options';
 
 /** The header, in column order. */
@@ -30,8 +30,11 @@ export function writeBreakpointCsvBytes(curve: GainCurve, options: CsvExportOpti
   const { timeSec, gainDb } = curveArrays(curve);
   const count = timeSec.length;
   // Rows are written as ASCII into one buffer with integer arithmetic (no
-  // per-row strings: a song's CSV has tens of thousands of rows).
+  // per-row strings: a song's CSV has tens of thousands of rows), two or four
+  // bytes a store through a DataView where it can (a byte at a time, the
+  // stores alone took most of the time).
   let buf = new Uint8Array(HEADER.length + 2 + count * 48 + MAX_ROW_BYTES);
+  let view = new DataView(buf.buffer);
   let at = 0;
   for (let i = 0; i < HEADER.length; i++) buf[at++] = HEADER.charCodeAt(i);
   buf[at++] = 13;
@@ -42,37 +45,31 @@ export function writeBreakpointCsvBytes(curve: GainCurve, options: CsvExportOpti
   let nextBar = 0;
   let beat = 0;
   let nextBeat = 0;
-  const memo = amplitudeMemo();
+  const gainText = new GainFieldText();
   let lastMicros = -1;
-  let lastGain = NaN;
-  let milliDb = 0;
-  let linMicro = 0;
   for (let i = 0; i < count; i++) {
     const t = Math.max(0, timeSec[i]);
-    const g = gainDb[i];
-    const micros = Math.round(t * 1e6);
+    const micros = roundNonNegative(t * 1e6);
     if (micros === lastMicros) continue;
     lastMicros = micros;
-    if (g !== lastGain) {
-      lastGain = g;
-      milliDb = Math.round(g * 1000);
-      linMicro = roundedMicroGain(memo, g);
-    }
     if (at + MAX_ROW_BYTES > buf.length) {
       const next = new Uint8Array(buf.length * 2);
       next.set(buf.subarray(0, at));
       buf = next;
+      view = new DataView(buf.buffer);
     }
-    at = putFixed(buf, at, micros, 6);
-    buf[at++] = 44;
-    at = putFixed(buf, at, milliDb, 3);
-    buf[at++] = 44;
-    at = putUint(buf, at, Math.round(t * sampleRate));
-    buf[at++] = 44;
+    const seconds = Math.floor(micros / 1e6);
+    at = putUint(view, at, seconds);
+    view.setUint8(at, 46);
+    at = putDigits6(view, at + 1, micros - seconds * 1e6);
+    const slot = gainText.slot(gainDb[i]);
+    at = gainText.putDb(view, at, slot);
+    at = putUint(view, at, roundNonNegative(t * sampleRate));
+    view.setUint8(at++, 44);
     // bar.beat.tick, as secondsToBarBeatTick (bar-beat.ts) computes it. Ticks never
     // fall (times rise), so with whole ticks per beat the bar and beat are counted
     // on from the last row's (exact in integers; no division per row).
-    const ticks = Math.round(t * ticksPerSec);
+    const ticks = roundNonNegative(t * ticksPerSec);
     if (wholeBeats) {
       if (ticks >= nextBar) {
         bar = Math.floor(ticks / ticksPerBar);
@@ -91,15 +88,12 @@ export function writeBreakpointCsvBytes(curve: GainCurve, options: CsvExportOpti
       beat = Math.floor((ticks - barStart) / ticksPerBeat);
     }
     const inBar = ticks - barStart;
-    at = putUint(buf, at, bar + 1);
-    buf[at++] = 46;
-    at = putUint(buf, at, beat + 1);
-    buf[at++] = 46;
-    at = putUint(buf, at, Math.round(inBar - beat * ticksPerBeat));
-    buf[at++] = 44;
-    at = putFixed(buf, at, linMicro, 6);
-    buf[at++] = 13;
-    buf[at++] = 10;
+    at = putUint(view, at, bar + 1);
+    view.setUint8(at++, 46);
+    at = putUint(view, at, beat + 1);
+    view.setUint8(at++, 46);
+    at = putUint(view, at, Math.round(inBar - beat * ticksPerBeat));
+    at = gainText.putLinear(view, at, slot);
   }
   return buf.subarray(0, at);
 }
@@ -108,91 +102,189 @@ const HEADER = CSV_COLUMNS.join(',');
 
 /**
  * Most bytes a row can take: five numbers of at most 17 digits (2^53), a sign,
- * decimal points, separators and CRLF — with room to spare.
+ * decimal points, separators and CRLF — with room to spare, also for the
+ * 16 bytes `GainFieldText` stores whatever its text's length.
  */
 const MAX_ROW_BYTES = 160;
 
-const POW10 = [1, 10, 100, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9];
+/** Slots of the gain text memo (a power of two: 2^12). */
+const GAIN_SLOTS = 4096;
+/** Bytes a slot holds for each of its two texts. */
+const GAIN_TEXT_BYTES = 16;
 
 /**
- * round(10^(G/20)·10^6), as `Math.round(Math.pow(10, G / 20) * 1e6)` gives it:
- * through `Math.exp` (`amplitudeMemo`, a fraction of `Math.pow`'s time here), which
- * differs by a few ulps, so a value within 10^−12 (relative) of a rounding tie
- * is redone with `Math.pow`.
+ * The text of a row's two gain fields — ",gain_db," and ",gain_linear\r\n" —
+ * per gain, memoised in a direct-mapped table keyed by the exact dB value (as
+ * `DbMemo`): a thinned curve repeats a few dozen gains at every hit, so most
+ * rows copy both texts with four 4-byte stores each instead of rounding,
+ * exponentiating and writing them digit by digit. A text too long for its slot
+ * (a gain above +120 dB or below −10^9 dB) is written straight from the numbers instead.
  */
-function roundedMicroGain(memo: DbMemo, gainDb: number): number {
-  const y = memo.of(gainDb) * 1e6;
+class GainFieldText {
+  private readonly keys = new Float64Array(GAIN_SLOTS).fill(NaN);
+  private readonly text = new Uint8Array(GAIN_SLOTS * 2 * GAIN_TEXT_BYTES);
+  private readonly words = new DataView(this.text.buffer);
+  private readonly lengths = new Uint8Array(GAIN_SLOTS * 2);
+  private readonly bits = new Float64Array(1);
+  private readonly halves = new Uint32Array(this.bits.buffer);
+  /** Where a gain whose text is too long for a slot is kept (slot −1). */
+  private longGainDb = 0;
+
+  /** The slot holding the texts of `gainDb`, filled first if it holds another gain's; −1 if they do not fit. */
+  slot(gainDb: number): number {
+    this.bits[0] = gainDb;
+    const slot = Math.imul(this.halves[0] ^ this.halves[1], 0x9e3779b1) >>> 20;
+    if (this.keys[slot] === gainDb) return slot;
+    const dbAt = slot * 2 * GAIN_TEXT_BYTES;
+    const dbEnd = putMilliField(this.text, dbAt, roundedMilliDb(gainDb));
+    const linAt = dbAt + GAIN_TEXT_BYTES;
+    const linEnd = putLinearField(this.text, linAt, roundedMicroGain(gainDb));
+    if (dbEnd - dbAt > GAIN_TEXT_BYTES || linEnd - linAt > GAIN_TEXT_BYTES) {
+      this.keys[slot] = NaN;
+      this.longGainDb = gainDb;
+      return -1;
+    }
+    this.keys[slot] = gainDb;
+    this.lengths[2 * slot] = dbEnd - dbAt;
+    this.lengths[2 * slot + 1] = linEnd - linAt;
+    return slot;
+  }
+
+  /** Writes ",gain_db," of the slot's gain at `at`; returns the index after it. */
+  putDb(out: DataView, at: number, slot: number): number {
+    if (slot < 0) return putMilliField(new Uint8Array(out.buffer), at, roundedMilliDb(this.longGainDb));
+    this.copy(out, at, slot * 2 * GAIN_TEXT_BYTES);
+    return at + this.lengths[2 * slot];
+  }
+
+  /** Writes ",gain_linear\r\n" of the slot's gain at `at`; returns the index after it. */
+  putLinear(out: DataView, at: number, slot: number): number {
+    if (slot < 0) return putLinearField(new Uint8Array(out.buffer), at, roundedMicroGain(this.longGainDb));
+    this.copy(out, at, slot * 2 * GAIN_TEXT_BYTES + GAIN_TEXT_BYTES);
+    return at + this.lengths[2 * slot + 1];
+  }
+
+  /** All 16 bytes of a text; the bytes past its length are overwritten by what follows. */
+  private copy(out: DataView, at: number, from: number): void {
+    const w = this.words;
+    out.setUint32(at, w.getUint32(from, true), true);
+    out.setUint32(at + 4, w.getUint32(from + 4, true), true);
+    out.setUint32(at + 8, w.getUint32(from + 8, true), true);
+    out.setUint32(at + 12, w.getUint32(from + 12, true), true);
+  }
+}
+
+/** ",gain_db," from round(G·1000), into `buf` at `at`; returns the index after it. */
+function putMilliField(buf: Uint8Array, at: number, milliDb: number): number {
+  const view = new DataView(buf.buffer, buf.byteOffset);
+  buf[at++] = 44;
+  if (milliDb < 0) {
+    buf[at++] = 45;
+    milliDb = -milliDb;
+  }
+  const whole = Math.floor(milliDb / 1000);
+  const frac = milliDb - whole * 1000;
+  at = putUint(view, at, whole);
+  const tenths = Math.floor(frac / 100);
+  buf[at] = 46;
+  buf[at + 1] = 48 + tenths;
+  view.setUint16(at + 2, DIGIT_PAIRS[frac - tenths * 100], true);
+  buf[at + 4] = 44;
+  return at + 5;
+}
+
+/** ",gain_linear\r\n" from round(10^(G/20)·10^6), into `buf` at `at`; returns the index after it. */
+function putLinearField(buf: Uint8Array, at: number, microGain: number): number {
+  const view = new DataView(buf.buffer, buf.byteOffset);
+  buf[at++] = 44;
+  const whole = Math.floor(microGain / 1e6);
+  at = putUint(view, at, whole);
+  buf[at] = 46;
+  at = putDigits6(view, at + 1, microGain - whole * 1e6);
+  buf[at] = 13;
+  buf[at + 1] = 10;
+  return at + 2;
+}
+
+/** round(G·1000): gain_db in thousandths. */
+function roundedMilliDb(gainDb: number): number {
+  return Math.round(gainDb * 1000);
+}
+
+/**
+ * round(10^(G/20)·10^6) as `Math.round(Math.pow(10, G / 20) * 1e6)` gives it,
+ * through `Math.exp` (a fraction of `Math.pow`'s time here), which differs by a
+ * few ulps, so a value within 10^−12 (relative) of a rounding tie is redone
+ * with `Math.pow`.
+ */
+function roundedMicroGain(gainDb: number): number {
+  const y = Math.exp(gainDb * NEPER_PER_DB) * 1e6;
   const tie = y - Math.floor(y) - 0.5;
   if ((tie < 0 ? -tie : tie) <= y * 1e-12) return Math.round(Math.pow(10, gainDb / 20) * 1e6);
   return Math.round(y);
 }
 
-/** ASCII digit pairs "00" … "99": the tens digit of n at 2n, the units at 2n + 1. */
-const DIGIT_PAIRS = new Uint8Array(200);
-for (let n = 0; n < 100; n++) {
-  DIGIT_PAIRS[2 * n] = 48 + Math.floor(n / 10);
-  DIGIT_PAIRS[2 * n + 1] = 48 + (n % 10);
+/**
+ * Math.round(y) for y ≥ 0 without its branch: ⌊y⌋ + [y − ⌊y⌋ ≥ ½]. For y ≥ 0,
+ * y − ⌊y⌋ and its double are exact in binary floating point, so the comparison
+ * is exact; this takes about half of Math.round's time on random fractions,
+ * where Math.round's branch mispredicts.
+ */
+function roundNonNegative(y: number): number {
+  const whole = Math.floor(y);
+  return whole + (((y - whole) * 2) | 0);
 }
 
-/** Decimal digits of a non-negative integer below 2^53 (at least 1). */
-function digitCount(v: number): number {
-  if (v < 1e4) return v < 10 ? 1 : v < 100 ? 2 : v < 1e3 ? 3 : 4;
-  if (v < 1e8) return v < 1e5 ? 5 : v < 1e6 ? 6 : v < 1e7 ? 7 : 8;
-  let digits = 9;
-  for (let p = 1e9; p <= v; p *= 10) digits++;
-  return digits;
+/** ASCII digit pairs "00" … "99" as little-endian 16-bit words: the tens digit, then the units. */
+const DIGIT_PAIRS = new Uint16Array(100);
+for (let n = 0; n < 100; n++) DIGIT_PAIRS[n] = 48 + Math.floor(n / 10) + ((48 + (n % 10)) << 8);
+
+/** Writes a non-negative integer below 2^53 in decimal at `at`; returns the index after it. */
+function putUint(out: DataView, at: number, v: number): number {
+  if (v < 10) {
+    out.setUint8(at, 48 + v);
+    return at + 1;
+  }
+  if (v < 100) {
+    out.setUint16(at, DIGIT_PAIRS[v], true);
+    return at + 2;
+  }
+  return putLongUint(out, at, v);
 }
 
-/** Writes a non-negative integer in decimal at `at`; returns the index after it. */
-function putUint(buf: Uint8Array, at: number, v: number): number {
-  const end = at + digitCount(v);
+/** `putUint` for v ≥ 100, two digits a store from the right. */
+function putLongUint(out: DataView, at: number, v: number): number {
+  let digits = 3;
+  for (let p = 1000; p <= v; p *= 10) digits++;
+  const end = at + digits;
   let i = end;
   let x = v;
   while (x > 0x7fffffff) {
     const q = Math.floor(x / 10);
-    buf[--i] = 48 + x - q * 10;
+    out.setUint8(--i, 48 + x - q * 10);
     x = q;
   }
   let s = x | 0;
   while (s >= 100) {
     const q = (s / 100) | 0;
-    const r = 2 * (s - q * 100);
-    buf[--i] = DIGIT_PAIRS[r + 1];
-    buf[--i] = DIGIT_PAIRS[r];
+    i -= 2;
+    out.setUint16(i, DIGIT_PAIRS[s - q * 100], true);
     s = q;
   }
-  if (s >= 10) {
-    buf[--i] = DIGIT_PAIRS[2 * s + 1];
-    buf[--i] = DIGIT_PAIRS[2 * s];
-  } else buf[--i] = 48 + s;
+  if (s >= 10) out.setUint16(i - 2, DIGIT_PAIRS[s], true);
+  else out.setUint8(i - 1, 48 + s);
   return end;
 }
 
-/**
- * Writes an integer count of 10^−decimals (decimals ≤ 9) as a fixed-point
- * decimal at `at`, zero without a sign; returns the index after it.
- */
-function putFixed(buf: Uint8Array, at: number, scaled: number, decimals: number): number {
-  if (scaled < 0) {
-    buf[at++] = 45;
-    scaled = -scaled;
-  }
-  const unit = POW10[decimals];
-  const whole = Math.floor(scaled / unit);
-  let frac = (scaled - whole * unit) | 0;
-  at = putUint(buf, at, whole);
-  buf[at] = 46;
-  const end = at + 1 + decimals;
-  let i = end;
-  while (i - at > 2) {
-    const q = (frac / 100) | 0;
-    const r = 2 * (frac - q * 100);
-    buf[--i] = DIGIT_PAIRS[r + 1];
-    buf[--i] = DIGIT_PAIRS[r];
-    frac = q;
-  }
-  if (i - at > 1) buf[--i] = 48 + frac;
-  return end;
+/** Writes 0 ≤ v < 10^6 as exactly six digits (leading zeros) at `at`; returns the index after them. */
+function putDigits6(out: DataView, at: number, v: number): number {
+  const hi = (v / 10000) | 0;
+  const rest = v - hi * 10000;
+  const mid = (rest / 100) | 0;
+  out.setUint16(at, DIGIT_PAIRS[hi], true);
+  out.setUint16(at + 2, DIGIT_PAIRS[mid], true);
+  out.setUint16(at + 4, DIGIT_PAIRS[rest - mid * 100], true);
+  return at + 6;
 }
 
 /** ASCII bytes → string. */
