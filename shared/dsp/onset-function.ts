@@ -22,7 +22,7 @@ export interface PredictionOnsetFunction {
 const ORDER = 4;
 
 /**
- * The running covariance sums restart from zero every this many frames (8 s
+ * The prefix sums restart from zero every this many frames (8 s
  * on the 1 ms grid): float64 prefix sums over a whole song would carry
  * their rounding from the first frame to the last, and a block that starts
  * afresh can be computed on its own (server/audio/detection-split.ts computes
