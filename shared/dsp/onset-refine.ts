@@ -18,8 +18,15 @@ import { biquadLowpass, type Biquad } from './biquad';
  */
 const pool = { sum: new Float64Array(0), sumSq: new Float64Array(0), err: new Float32Array(0), seg: new Float32Array(0), dec: new Float32Array(0) };
 /** The normal equations' scratch by predictor order (m: p², r, lag: p + 1, coef, hist: p). */
-const solverPool = new Map<number, { m: Float64Array; r: Float64Array; lag: Float64Array; coef: Float64Array; hist: Float64Array }>();
-function solverScratch(p: number): { m: Float64Array; r: Float64Array; lag: Float64Array; coef: Float64Array; hist: Float64Array } {
+interface SolverScratch {
+  m: Float64Array;
+  r: Float64Array;
+  lag: Float64Array;
+  coef: Float64Array;
+  hist: Float64Array;
+}
+const solverPool = new Map<number, SolverScratch>();
+function solverScratch(p: number): SolverScratch {
   let s = solverPool.get(p);
   if (!s) {
     s = { m: new Float64Array(p * p), r: new Float64Array(p), lag: new Float64Array(p + 1), coef: new Float64Array(p), hist: new Float64Array(p) };
@@ -119,8 +126,28 @@ export function arAicChangePoint(x: Float32Array, startSample: number, endSample
   const fitStart = Math.max(order, a - fitSamples);
   const count = a - fitStart;
   if (count < 4 * order) return aicChangePoint(x, a, b);
-  const p = order;
-  const { m, r, lag, coef, hist } = solverScratch(p);
+  // The steps are functions of their own: each gets optimised on its own in
+  // a few milliseconds, where one big body took ~60 ms to compile and ran in
+  // the interpreter meanwhile (a command line runs it only a few hundred times).
+  const scratch = solverScratch(order);
+  fitPredictor(x, fitStart, a, order, ridgeRelative, scratch);
+  const n = b - a;
+  const err = f32('err', n);
+  // Extrapolate what was sounding (the predictor run on its own output) and
+  // subtract it: what is left before the hit is noise, after it the new hit.
+  if (freeRun) freeRunError(x, a, n, order, scratch.coef, scratch.hist, err);
+  else if (order === 8) predictionError8(x, a, n, scratch.coef, err);
+  else predictionError(x, a, n, order, scratch.coef, err);
+  return a + aicChangePoint(err, 0, n);
+}
+
+/**
+ * Least-squares order-p predictor of x on [fitStart, a) into scratch.coef:
+ * the covariance method's normal equations with ridgeRelative·(mean
+ * diagonal) on the diagonal, solved by Cholesky.
+ */
+function fitPredictor(x: Float32Array, fitStart: number, a: number, p: number, ridgeRelative: number, scratch: SolverScratch): void {
+  const { m, r, lag, coef } = scratch;
   // Covariance method from lagged sums: L[d] = Σ_{u∈[fitStart, a)} x[u]·x[u−d];
   // entry (j, k≥j) = Σ_u x[u−1−j]·x[u−1−k] is L[k−j] with the window shifted
   // by j+1 samples (drop j+1 terms at the end, add j+1 before the start).
@@ -148,30 +175,27 @@ export function arAicChangePoint(x: Float32Array, startSample: number, endSample
   const ridge = (ridgeRelative * trace) / p + 1e-15;
   for (let j = 0; j < p; j++) m[j * p + j]! += ridge;
   choleskySolve(m, r, coef, p);
-  const n = b - a;
-  const err = f32('err', n);
-  if (freeRun) {
-    // Extrapolate what was sounding (the predictor run on its own output) and
-    // subtract it: what is left before the hit is noise, after it the new hit.
-    for (let k = 0; k < p; k++) hist[k] = x[a - 1 - k]!;
-    for (let i = 0; i < n; i++) {
-      let pred = 0;
-      for (let k = 0; k < p; k++) pred += coef[k]! * hist[k]!;
-      for (let k = p - 1; k > 0; k--) hist[k] = hist[k - 1]!;
-      hist[0] = pred;
-      err[i] = x[a + i]! - pred;
-    }
-    return a + aicChangePoint(err, 0, n);
+}
+
+/** err[i] = x[a + i] − Σ_{k<p} coef[k]·x[a + i − 1 − k] for i < n (any order; predictionError8 is this for 8). */
+function predictionError(x: Float32Array, a: number, n: number, p: number, coef: Float64Array, err: Float32Array): void {
+  for (let i = 0; i < n; i++) {
+    let pred = 0;
+    for (let k = 0; k < p; k++) pred += coef[k]! * x[a + i - 1 - k]!;
+    err[i] = x[a + i]! - pred;
   }
-  if (p === 8) predictionError8(x, a, n, coef, err);
-  else {
-    for (let i = 0; i < n; i++) {
-      let pred = 0;
-      for (let k = 0; k < p; k++) pred += coef[k]! * x[a + i - 1 - k]!;
-      err[i] = x[a + i]! - pred;
-    }
+}
+
+/** err[i] = x[a + i] − the predictor run on its own output from the p samples before a. */
+function freeRunError(x: Float32Array, a: number, n: number, p: number, coef: Float64Array, hist: Float64Array, err: Float32Array): void {
+  for (let k = 0; k < p; k++) hist[k] = x[a - 1 - k]!;
+  for (let i = 0; i < n; i++) {
+    let pred = 0;
+    for (let k = 0; k < p; k++) pred += coef[k]! * hist[k]!;
+    for (let k = p - 1; k > 0; k--) hist[k] = hist[k - 1]!;
+    hist[0] = pred;
+    err[i] = x[a + i]! - pred;
   }
-  return a + aicChangePoint(err, 0, n);
 }
 
 /**
