@@ -40,22 +40,30 @@ export function movingMedianInto(
   outStart: number,
 ): void {
   const scratch = new Float64Array(2 * radius + 1);
+  // Zeros in the window, counted as it slides ([zLo, zHi) is what is counted).
+  let zeros = 0;
+  let zLo = -1;
+  let zHi = -1;
   for (let centre = Math.ceil(centreFrom / stride) * stride; centre < Math.min(n, centreTo); centre += stride) {
     const lo = Math.max(0, centre - radius);
     const hi = Math.min(n, centre + radius + 1);
     const len = hi - lo;
     const k = len >> 1;
+    if (zLo < 0 || lo >= zHi) {
+      zeros = 0;
+      zLo = zHi = lo;
+    }
+    for (; zHi < hi; zHi++) if (values[zHi - valuesStart] === 0) zeros++;
+    for (; zLo < lo; zLo++) if (values[zLo - valuesStart] === 0) zeros--;
     // An onset function of rises is zero wherever nothing rises, often for
     // most of a window: with more than k zeros the k-th smallest is 0
     // (fewer than len − k ≤ k + 1 values are left to sit below them), and no
     // selection is needed.
-    let zeros = 0;
-    for (let i = 0; i < len; i++) {
-      const v = values[lo - valuesStart + i]!;
-      scratch[i] = v;
-      if (v === 0) zeros++;
+    let median = 0;
+    if (zeros <= k) {
+      for (let i = 0; i < len; i++) scratch[i] = values[lo - valuesStart + i]!;
+      median = selectKth(scratch, len, k);
     }
-    const median = zeros > k ? 0 : selectKth(scratch, len, k);
     out.fill(median, centre - outStart, Math.min(n, centre + stride) - outStart);
   }
 }
