@@ -39,33 +39,46 @@ export function movingMedianInto(
   out: Float32Array,
   outStart: number,
 ): void {
+  const first = Math.ceil(centreFrom / stride) * stride;
+  const end = Math.min(n, centreTo);
+  if (first >= end) return;
   const scratch = new Float64Array(2 * radius + 1);
-  // Zeros in the window, counted as it slides ([zLo, zHi) is what is counted).
-  let zeros = 0;
-  let zLo = -1;
-  let zHi = -1;
-  for (let centre = Math.ceil(centreFrom / stride) * stride; centre < Math.min(n, centreTo); centre += stride) {
+  // zeros[i − spanLo] = how many of values' frames spanLo … i − 1 are 0. A
+  // short loop of its own: it optimises at once, and the centres' loop then
+  // does little per centre.
+  const spanLo = Math.max(0, first - radius);
+  const spanHi = Math.min(n, end - 1 + radius + 1);
+  const zeros = zeroCounts(values, spanLo - valuesStart, spanHi - valuesStart);
+  for (let centre = first; centre < end; centre += stride) {
     const lo = Math.max(0, centre - radius);
     const hi = Math.min(n, centre + radius + 1);
     const len = hi - lo;
     const k = len >> 1;
-    if (zLo < 0 || lo >= zHi) {
-      zeros = 0;
-      zLo = zHi = lo;
-    }
-    for (; zHi < hi; zHi++) if (values[zHi - valuesStart] === 0) zeros++;
-    for (; zLo < lo; zLo++) if (values[zLo - valuesStart] === 0) zeros--;
     // An onset function of rises is zero wherever nothing rises, often for
     // most of a window: with more than k zeros the k-th smallest is 0
     // (fewer than len − k ≤ k + 1 values are left to sit below them), and no
     // selection is needed.
     let median = 0;
-    if (zeros <= k) {
+    if (zeros[hi - spanLo]! - zeros[lo - spanLo]! <= k) {
       for (let i = 0; i < len; i++) scratch[i] = values[lo - valuesStart + i]!;
       median = selectKth(scratch, len, k);
     }
     out.fill(median, centre - outStart, Math.min(n, centre + stride) - outStart);
   }
+}
+
+/** Running counts of zeros in values[from, to), reused from call to call (one call at a time per thread). */
+let zeroStore = new Int32Array(0);
+function zeroCounts(values: Float32Array, from: number, to: number): Int32Array {
+  if (zeroStore.length < to - from + 1) zeroStore = new Int32Array(to - from + 1);
+  const counts = zeroStore;
+  let count = 0;
+  counts[0] = 0;
+  for (let i = from; i < to; i++) {
+    if (values[i] === 0) count++;
+    counts[i - from + 1] = count;
+  }
+  return counts;
 }
 
 /**
