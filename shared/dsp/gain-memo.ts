@@ -23,11 +23,13 @@ export class DbMemo {
   of(gainDb: number): number {
     this.bits[0] = gainDb;
     const slot = Math.imul(this.words[0] ^ this.words[1], 0x9e3779b1) >>> 20;
-    if (this.keys[slot] === gainDb) return this.values[slot];
-    const v = this.fn(gainDb);
-    this.keys[slot] = gainDb;
-    this.values[slot] = v;
-    return v;
+    if (this.keys[slot] !== gainDb) {
+      this.keys[slot] = gainDb;
+      this.values[slot] = this.fn(gainDb);
+    }
+    // Always read back from the table: one path for the optimiser, a raw double, so
+    // an inlined look-up allocates no heap number for its result.
+    return this.values[slot];
   }
 }
 

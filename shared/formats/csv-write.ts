@@ -1,5 +1,6 @@
 import { curveArrays, type GainCurve } from '../dsp/gain-curve';
 import { NEPER_PER_DB } from '../dsp/gain-memo';
+import { roundNonNegative } from './rounding';
 import { csvExportOptionsSchema, type CsvExportOptionsInput } from '../schemas/export-options';
 
 /** The header, in column order. */
@@ -222,17 +223,6 @@ function roundedMicroGain(gainDb: number): number {
   const tie = y - Math.floor(y) - 0.5;
   if ((tie < 0 ? -tie : tie) <= y * 1e-12) return Math.round(Math.pow(10, gainDb / 20) * 1e6);
   return Math.round(y);
-}
-
-/**
- * Math.round(y) for y ≥ 0 without its branch: ⌊y⌋ + [y − ⌊y⌋ ≥ ½]. For y ≥ 0,
- * y − ⌊y⌋ and its double are exact in binary floating point, so the comparison
- * is exact; this takes about half of Math.round's time on random fractions,
- * where Math.round's branch mispredicts.
- */
-function roundNonNegative(y: number): number {
-  const whole = Math.floor(y);
-  return whole + (((y - whole) * 2) | 0);
 }
 
 /** ASCII digit pairs "00" … "99" as little-endian 16-bit words: the tens digit, then the units. */

@@ -3,6 +3,7 @@ import { midiExportOptionsSchema, type MidiExportOptionsInput } from '../schemas
 import { secondsToTicks } from './bar-beat';
 import { encodeVlq, writeVlq } from './vlq';
 import { DbMemo } from '../dsp/gain-memo';
+import { roundNonNegative } from './rounding';
 
 /**
  * Gain → 7-bit controller value: v = round(127 · 10^(G/40)), 0 at or below the
@@ -153,9 +154,12 @@ export interface CcChanges {
   n: number;
 }
 
-function growCcChanges(s: CcChanges): void {
-  const ticks = new Float64Array(s.ticks.length * 2);
-  const values = new Uint16Array(s.values.length * 2);
+/** Makes room for `extra` more changes. */
+function reserveCcChanges(s: CcChanges, extra: number): void {
+  if (s.n + extra <= s.ticks.length) return;
+  const size = Math.max(s.ticks.length * 2, s.n + extra);
+  const ticks = new Float64Array(size);
+  const values = new Uint16Array(size);
   ticks.set(s.ticks);
   values.set(s.values);
   s.ticks = ticks;
@@ -183,10 +187,9 @@ export function ccChanges(curve: GainCurve, bpm: number, ppq: number, fullScale:
   const floorDb = curve.floorDb ?? -Infinity;
   const xFloor = Math.pow(10, floorDb / 40);
   const ticksPerSec = (bpm * ppq) / 60;
-  let written = -1;
   let pendingTick = 0;
   // 10^(G/40) of the breakpoints' gains, which repeat at every hit: the same Math.pow, memoised.
-  const x40 = new DbMemo((gainDb) => Math.pow(10, gainDb / 40));
+  const x40 = new DbMemo(powerOf10Over40);
   let pendingValue = ccValue(gainDb[0], floorDb, fullScale);
   for (let i = 0; i + 1 < count; i++) {
     const aT = timeSec[i];
@@ -196,61 +199,98 @@ export function ccChanges(curve: GainCurve, bpm: number, ppq: number, fullScale:
     const kStart = Math.max(1, Math.ceil(aT * ticksPerSec - 1e-9));
     const kEnd = Math.floor(bT * ticksPerSec + 1e-9);
     if (kStart > kEnd) continue;
-    const flat = aG === bG;
-    const dbPerTick = flat ? 0 : (bG - aG) / ((bT - aT) * ticksPerSec);
+    // A new tick makes the pending value final (the segment may start on the last one's tick).
+    if (kStart !== pendingTick) {
+      if (pendingValue !== lastWritten(out)) pushCcChange(out, pendingTick, pendingValue);
+      pendingTick = kStart;
+    }
+    if (aG === bG) {
+      pendingValue = aG <= floorDb ? 0 : Math.max(0, Math.min(fullScale, Math.round(fullScale * x40.of(aG))));
+      continue;
+    }
+    const dbPerTick = (bG - aG) / ((bT - aT) * ticksPerSec);
     const gStart = aG + dbPerTick * (kStart - aT * ticksPerSec);
     const gLo = aG < bG ? aG : bG;
     const gHi = aG < bG ? bG : aG;
-    if (flat || kStart === kEnd) {
-      let value: number;
-      if (flat) value = aG <= floorDb ? 0 : Math.max(0, Math.min(fullScale, Math.round(fullScale * x40.of(aG))));
-      else {
-        const gc = gStart < gLo ? gLo : gStart > gHi ? gHi : gStart;
-        // Through Math.exp, a third of Math.pow's time; where that few-ulp difference could
-        // matter (within 1e-12 of a rounding tie, or within 1e-9 dB of the floor) through Math.pow.
-        const y = fullScale * Math.exp(gc * NEPER_PER_DB_40);
-        const tie = y - Math.floor(y) - 0.5;
-        const nearFloor = gc - floorDb;
-        if ((tie < 0 ? -tie : tie) <= y * 1e-12 || (nearFloor < 0 ? -nearFloor : nearFloor) <= 1e-9) {
-          const x = Math.pow(10, gc / 40);
-          value = x <= xFloor ? 0 : Math.min(fullScale, Math.round(fullScale * x));
-        } else value = gc < floorDb ? 0 : Math.min(fullScale, Math.round(y));
-      }
-      if (kStart !== pendingTick) {
-        if (pendingValue !== written) {
-          pushCcChange(out, pendingTick, pendingValue);
-          written = pendingValue;
-        }
-        pendingTick = kStart;
-      }
-      pendingValue = value;
+    if (kStart === kEnd) {
+      pendingValue = oneTickValue(gStart < gLo ? gLo : gStart > gHi ? gHi : gStart, floorDb, xFloor, fullScale);
       continue;
     }
-    const ratio = Math.pow(10, dbPerTick / 40);
-    let x = Math.pow(10, gStart / 40);
-    const xLo = x40.of(gLo);
-    const xHi = x40.of(gHi);
-    for (let k = kStart; k <= kEnd; k++, x *= ratio) {
-      const xc = x < xLo ? xLo : x > xHi ? xHi : x;
-      const value = xc <= xFloor ? 0 : Math.min(fullScale, Math.round(fullScale * xc));
-      // Inside the segment each tick has one value, so the pending one is final at the next tick.
-      if (k !== pendingTick && pendingValue !== written) {
-        pushCcChange(out, pendingTick, pendingValue);
-        written = pendingValue;
-      }
-      pendingTick = k;
-      pendingValue = value;
-    }
+    pendingValue = rampTicks(out, kStart, kEnd, Math.pow(10, gStart / 40), Math.pow(10, dbPerTick / 40), x40.of(gLo), x40.of(gHi), xFloor, fullScale);
+    pendingTick = kEnd;
   }
-  if (pendingValue !== written) pushCcChange(out, pendingTick, pendingValue);
+  if (pendingValue !== lastWritten(out)) pushCcChange(out, pendingTick, pendingValue);
   return out;
+}
+
+/** The last value written (−1 before the first): a change is written only when it differs from it. */
+function lastWritten(out: CcChanges): number {
+  return out.n > 0 ? out.values[out.n - 1] : -1;
+}
+
+/**
+ * round(fullScale·10^(G/40)) of a segment's only tick, at gain `gainDb` (already
+ * clamped to the segment), 0 at or below the floor. Through Math.exp, a third of
+ * Math.pow's time; where that few-ulp difference could matter (within 1e-12 of a
+ * rounding tie, or within 1e-9 dB of the floor) through Math.pow.
+ */
+function oneTickValue(gainDb: number, floorDb: number, xFloor: number, fullScale: number): number {
+  const y = fullScale * Math.exp(gainDb * NEPER_PER_DB_40);
+  const tie = y - Math.floor(y) - 0.5;
+  const nearFloor = gainDb - floorDb;
+  if ((tie < 0 ? -tie : tie) <= y * 1e-12 || (nearFloor < 0 ? -nearFloor : nearFloor) <= 1e-9) {
+    const x = Math.pow(10, gainDb / 40);
+    return x <= xFloor ? 0 : Math.min(fullScale, Math.round(fullScale * x));
+  }
+  return gainDb < floorDb ? 0 : Math.min(fullScale, Math.round(y));
+}
+
+/**
+ * The ticks kStart … kEnd of a segment straight in dB, where x = 10^(G/40) is
+ * x0 at kStart and grows by `ratio` a tick (clamped to the segment's [xLo, xHi]):
+ * appends the changes at ticks kStart … kEnd − 1 and returns the value at kEnd,
+ * which a breakpoint on that tick may still replace. Inside the segment each
+ * tick has one value, so each is final at the next tick; it is stored always and
+ * counted only when it differs from the last written (no branch on it: it is
+ * taken about every other tick).
+ */
+function rampTicks(out: CcChanges, kStart: number, kEnd: number, x0: number, ratio: number, xLo: number, xHi: number, xFloor: number, fullScale: number): number {
+  reserveCcChanges(out, kEnd - kStart);
+  const { ticks, values } = out;
+  let n = out.n;
+  let written = lastWritten(out);
+  let x = x0;
+  let value = rampValue(x, xLo, xHi, xFloor, fullScale);
+  for (let k = kStart + 1; k <= kEnd; k++) {
+    x *= ratio;
+    ticks[n] = k - 1;
+    values[n] = value;
+    n += value !== written ? 1 : 0;
+    written = value;
+    value = rampValue(x, xLo, xHi, xFloor, fullScale);
+  }
+  out.n = n;
+  return value;
 }
 
 /** Appends one (tick, value) change, growing the arrays when full. */
 function pushCcChange(out: CcChanges, tick: number, value: number): void {
-  if (out.n === out.ticks.length) growCcChanges(out);
+  reserveCcChanges(out, 1);
   out.ticks[out.n] = tick;
   out.values[out.n++] = value;
+}
+
+/** round(fullScale·x) of x = 10^(G/40) clamped to the segment's [xLo, xHi], 0 at or below the floor. */
+function rampValue(x: number, xLo: number, xHi: number, xFloor: number, fullScale: number): number {
+  // Math.min and Math.max, not `x < xLo ? xLo : …`: a conditional choosing between x and
+  // a parameter made x a boxed number in the optimised loop (a heap allocation per tick).
+  const xc = Math.min(xHi, Math.max(xLo, x));
+  return xc <= xFloor ? 0 : Math.min(fullScale, roundNonNegative(fullScale * xc));
+}
+
+/** 10^(G/40), as `Math.pow` gives it (one module function for the memo, not a closure per call: see gain-memo.ts). */
+function powerOf10Over40(gainDb: number): number {
+  return Math.pow(10, gainDb / 40);
 }
 
 /** ln10/40 per dB: 10^(G/40) = e^(G·ln10/40). */
@@ -286,6 +326,7 @@ export function ccStream(curve: GainCurve, bpm: number, ppq: number, fullScale =
 function encodeCcTrack(name: string, stream: CcChanges, status: number, cc: number, fourteenBit: boolean): Uint8Array {
   const head = trackName(name).bytes!;
   const out = new Uint8Array(8 + 1 + head.length + stream.n * (fourteenBit ? 14 : 7) + 4);
+  const view = new DataView(out.buffer);
   let at = 8;
   out[at++] = 0x00;
   out.set(head, at);
@@ -302,23 +343,12 @@ function encodeCcTrack(name: string, stream: CcChanges, status: number, cc: numb
     if (fourteenBit) {
       const msb = value >> 7;
       if (msb !== lastMsb) {
-        at = delta < 0x80 ? ((out[at] = delta), at + 1) : writeVlq(out, at, delta);
-        out[at++] = status;
-        out[at++] = cc;
-        out[at++] = msb;
+        at = putControlChange(out, view, at, delta, status, cc, msb);
         lastMsb = msb;
         delta = 0;
       }
-      at = delta < 0x80 ? ((out[at] = delta), at + 1) : writeVlq(out, at, delta);
-      out[at++] = status;
-      out[at++] = cc + 32;
-      out[at++] = value & 0x7f;
-    } else {
-      at = delta < 0x80 ? ((out[at] = delta), at + 1) : writeVlq(out, at, delta);
-      out[at++] = status;
-      out[at++] = cc;
-      out[at++] = value;
-    }
+      at = putControlChange(out, view, at, delta, status, cc + 32, value & 0x7f);
+    } else at = putControlChange(out, view, at, delta, status, cc, value);
   }
   out[at++] = 0x00;
   out[at++] = 0xff;
@@ -326,6 +356,23 @@ function encodeCcTrack(name: string, stream: CcChanges, status: number, cc: numb
   out[at++] = 0x00;
   out.set([0x4d, 0x54, 0x72, 0x6b, ...u32(at - 8)], 0);
   return out.subarray(0, at);
+}
+
+/**
+ * Delta ticks (VLQ), then Bn cc vv, at `at` of `out` (`view` over the same
+ * bytes); returns the index after them. A delta under 0x80 is one byte, so
+ * the whole event is one 4-byte store (most events: ticks a few apart).
+ */
+function putControlChange(out: Uint8Array, view: DataView, at: number, delta: number, status: number, cc: number, value: number): number {
+  if (delta < 0x80) {
+    view.setUint32(at, delta | (status << 8) | (cc << 16) | (value << 24), true);
+    return at + 4;
+  }
+  at = writeVlq(out, at, delta);
+  out[at] = status;
+  out[at + 1] = cc;
+  out[at + 2] = value;
+  return at + 3;
 }
 
 /**
