@@ -135,7 +135,11 @@ class GainFieldText {
   slot(gainDb: number): number {
     this.bits[0] = gainDb;
     const slot = Math.imul(this.halves[0] ^ this.halves[1], 0x9e3779b1) >>> 20;
-    if (this.keys[slot] === gainDb) return slot;
+    return this.keys[slot] === gainDb ? slot : this.fill(slot, gainDb);
+  }
+
+  /** Writes the texts of `gainDb` into `slot`; returns the slot, or −1 if they do not fit. */
+  private fill(slot: number, gainDb: number): number {
     const dbAt = slot * 2 * GAIN_TEXT_BYTES;
     const dbEnd = putMilliField(this.text, dbAt, roundedMilliDb(gainDb));
     const linAt = dbAt + GAIN_TEXT_BYTES;
@@ -231,6 +235,16 @@ for (let n = 0; n < 100; n++) DIGIT_PAIRS[n] = 48 + Math.floor(n / 10) + ((48 + 
 
 /** Writes a non-negative integer below 2^53 in decimal at `at`; returns the index after it. */
 function putUint(out: DataView, at: number, v: number): number {
+  if (v < 10000) return putUpTo4(out, at, v);
+  if (v >= 1e8) return putLongUint(out, at, v);
+  const high = (v / 10000) | 0;
+  at = putUpTo4(out, at, high);
+  putDigits4(out, at, v - high * 10000);
+  return at + 4;
+}
+
+/** Writes 0 ≤ v < 10^4 in decimal at `at`; returns the index after it. */
+function putUpTo4(out: DataView, at: number, v: number): number {
   if (v < 10) {
     out.setUint8(at, 48 + v);
     return at + 1;
@@ -239,13 +253,26 @@ function putUint(out: DataView, at: number, v: number): number {
     out.setUint16(at, DIGIT_PAIRS[v], true);
     return at + 2;
   }
-  return putLongUint(out, at, v);
+  const high = (v / 100) | 0;
+  if (high < 10) {
+    out.setUint8(at, 48 + high);
+    out.setUint16(at + 1, DIGIT_PAIRS[v - high * 100], true);
+    return at + 3;
+  }
+  putDigits4(out, at, v);
+  return at + 4;
 }
 
-/** `putUint` for v ≥ 100, two digits a store from the right. */
+/** Writes 0 ≤ v < 10^4 as exactly four digits (leading zeros) at `at`, one 4-byte store. */
+function putDigits4(out: DataView, at: number, v: number): void {
+  const high = (v / 100) | 0;
+  out.setUint32(at, DIGIT_PAIRS[high] | (DIGIT_PAIRS[v - high * 100] << 16), true);
+}
+
+/** `putUint` for v ≥ 10^8: a digit a store from the right above 2^31, then two. */
 function putLongUint(out: DataView, at: number, v: number): number {
-  let digits = 3;
-  for (let p = 1000; p <= v; p *= 10) digits++;
+  let digits = 9;
+  for (let p = 1e9; p <= v; p *= 10) digits++;
   const end = at + digits;
   let i = end;
   let x = v;
