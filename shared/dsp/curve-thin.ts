@@ -186,11 +186,11 @@ function withCrossings(points: CurveArrays, levelDb: number): DenseCurve {
   const T = points.timeSec;
   const G = points.gainDb;
   const count = T.length;
-  // At most: every point, a crossing per segment and its pieces' inner points.
+  // At most: every point, the inner points of each segment's pieces and a crossing where one crosses the level.
   let cap = count;
   for (let k = 0; k + 1 < count; k++) {
     const dG = G[k + 1] - G[k];
-    if (dG !== 0) cap += Math.ceil(Math.abs(dG) / MAX_PIECE_DB);
+    if (dG !== 0) cap += Math.ceil(Math.abs(dG) / MAX_PIECE_DB) - 1 + ((G[k] - levelDb) * (G[k + 1] - levelDb) < 0 ? 1 : 0);
   }
   const t = new Float64Array(cap);
   const g = new Float64Array(cap);
