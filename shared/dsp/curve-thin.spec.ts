@@ -67,4 +67,17 @@ describe('thinCurve', () => {
     // A 20 dB step read straight in amplitude needs points inside it (0.5 dB rule).
     expect(thin.length).toBeGreaterThan(4);
   });
+
+  it('gives the same result whatever it thinned before (its working arrays are reused from call to call)', () => {
+    const shape = tuckShapeSchema.parse({ points: [{ tMs: -3, gainDb: 0 }, { tMs: 0, gainDb: -40 }, { tMs: 50, gainDb: -40 }, { tMs: 150, gainDb: 0 }] });
+    const stamp = (count: number, spacingSec: number) => {
+      const hits: Hit[] = Array.from({ length: count }, (_, i) => ({ timeSec: 0.1 + i * spacingSec, strength: 1, enabled: true }));
+      return stampHits(hits, shape, { durationSec: 0.2 + count * spacingSec, baseGainDb: -2 }).curve;
+    };
+    const small = stamp(5, 0.3);
+    const first = thinCurve(small).points;
+    thinCurve(stamp(400, 0.17));
+    expect(thinCurve(small).points).toEqual(first);
+    expect(first.length).toBeGreaterThan(10);
+  });
 });

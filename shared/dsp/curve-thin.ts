@@ -178,6 +178,27 @@ interface DenseCurve {
   n: number;
 }
 
+/** Dense points up to which one set of arrays is kept from call to call (24 MB of them); longer curves get their own. */
+const KEPT_DENSE_POINTS = 1 << 20;
+let keptDense = { t: new Float64Array(0), g: new Float64Array(0), a: new Float64Array(0) };
+
+/**
+ * Arrays for `cap` dense points, whose contents the caller overwrites. One set is
+ * kept and reused: a song's are megabytes, and V8 answers that much new
+ * ArrayBuffer memory, call after call, with full garbage collections (an export
+ * of the bench song allocated ~13 MB; in a process holding decoded stems each
+ * collection took ~5 ms). Thinning never calls out while it uses them, and
+ * its result is copied out of them (`keptPoints`).
+ */
+function denseArrays(cap: number): { t: Float64Array; g: Float64Array; a: Float64Array } {
+  if (cap > KEPT_DENSE_POINTS) return { t: new Float64Array(cap), g: new Float64Array(cap), a: new Float64Array(cap) };
+  if (keptDense.t.length < cap) {
+    const size = Math.min(KEPT_DENSE_POINTS, Math.max(cap, keptDense.t.length * 2));
+    keptDense = { t: new Float64Array(size), g: new Float64Array(size), a: new Float64Array(size) };
+  }
+  return keptDense;
+}
+
 /**
  * The curve with a point added wherever a segment crosses `levelDb` and every
  * `MAX_PIECE_DB` along high segments (straight in dB, so exact), as arrays.
@@ -192,9 +213,7 @@ function withCrossings(points: CurveArrays, levelDb: number): DenseCurve {
     const dG = G[k + 1] - G[k];
     if (dG !== 0) cap += Math.ceil(Math.abs(dG) / MAX_PIECE_DB) - 1 + ((G[k] - levelDb) * (G[k + 1] - levelDb) < 0 ? 1 : 0);
   }
-  const t = new Float64Array(cap);
-  const g = new Float64Array(cap);
-  const a = new Float64Array(cap);
+  const { t, g, a } = denseArrays(cap);
   const memo = amplitudeMemo();
   let n = 0;
   for (let k = 0; k < count; k++) {

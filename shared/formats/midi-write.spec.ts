@@ -108,4 +108,12 @@ describe('writeMidiCc against a reference sampling', () => {
     expect(ticksChecked).toBeGreaterThan(100_000);
     expect(ambiguous).toBeLessThan(ticksChecked / 100);
   });
+
+  it('writes the same bytes whatever it wrote before (the lane stream\'s arrays are reused from call to call)', () => {
+    const ramp = (seconds: number): GainCurve => ({ points: [{ timeSec: 0, gainDb: 0 }, { timeSec: seconds / 2, gainDb: -50 }, { timeSec: seconds, gainDb: 0 }], floorDb: -60 });
+    const first = writeMidiCc([{ name: 'Bass', curve: ramp(1) }], { bpm: 120 });
+    writeMidiCc([{ name: 'Long', curve: ramp(600) }, { name: 'Short', curve: ramp(0.5) }], { bpm: 200, fourteenBit: true });
+    expect(writeMidiCc([{ name: 'Bass', curve: ramp(1) }], { bpm: 120 })).toEqual(first);
+    expect(first.length).toBeGreaterThan(100);
+  });
 });

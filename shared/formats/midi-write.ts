@@ -178,11 +178,14 @@ function reserveCcChanges(s: CcChanges, extra: number): void {
  * the segment in dB, which is where the running product clamps it; the same
  * value as `Math.pow` gives, see there).
  * The value a tick ends with counts (a breakpoint on a tick: the later segment's).
+ * With `into`, its arrays are reused (grown if need be) and it is returned.
  */
-export function ccChanges(curve: GainCurve, bpm: number, ppq: number, fullScale: number): CcChanges {
+export function ccChanges(curve: GainCurve, bpm: number, ppq: number, fullScale: number, into?: CcChanges): CcChanges {
   const { timeSec, gainDb } = curveArrays(curve);
   const count = timeSec.length;
-  const out: CcChanges = { ticks: new Float64Array(count * 4 + 16), values: new Uint16Array(count * 4 + 16), n: 0 };
+  const out: CcChanges = into ?? { ticks: new Float64Array(count * 4 + 16), values: new Uint16Array(count * 4 + 16), n: 0 };
+  out.n = 0;
+  reserveCcChanges(out, count * 4 + 16);
   if (count === 0) return out;
   const floorDb = curve.floorDb ?? -Infinity;
   const xFloor = Math.pow(10, floorDb / 40);
@@ -376,6 +379,15 @@ function putControlChange(out: Uint8Array, view: DataView, at: number, delta: nu
 }
 
 /**
+ * The controller stream of the lane being written, kept from call to call: a
+ * song's is megabytes, and V8 answers that much new ArrayBuffer memory, call after
+ * call, with full garbage collections. Each lane's stream is encoded before the
+ * next is made. A stream of over 2^20 changes (10 MB) is not kept.
+ */
+let laneStream: CcChanges = { ticks: new Float64Array(0), values: new Uint16Array(0), n: 0 };
+const KEPT_STREAM_CHANGES = 1 << 20;
+
+/**
  * Writes a Standard MIDI File, type 1 (MMA RP-001): division = ppq ticks per
  * quarter; track 1 holds the name, tempo (FF 51) and time signature (FF 58);
  * then one track per lane, named after it, with control changes on `cc` and
@@ -389,7 +401,8 @@ export function writeMidiCc(lanes: readonly MidiLane[], options: MidiExportOptio
   const tracks: Uint8Array[] = [];
   tracks.push(encodeTrack([trackName(title), tempo(o.bpm), timeSignature(o.timeSignature[0], o.timeSignature[1])]));
   const status = 0xb0 | (o.channel - 1);
-  for (const lane of lanes) tracks.push(encodeCcTrack(lane.name, ccChanges(lane.curve, o.bpm, o.ppq, o.fourteenBit ? 16383 : 127), status, o.cc, o.fourteenBit));
+  for (const lane of lanes) tracks.push(encodeCcTrack(lane.name, ccChanges(lane.curve, o.bpm, o.ppq, o.fourteenBit ? 16383 : 127, laneStream), status, o.cc, o.fourteenBit));
+  if (laneStream.ticks.length > KEPT_STREAM_CHANGES) laneStream = { ticks: new Float64Array(0), values: new Uint16Array(0), n: 0 };
   if (o.markerTrack) {
     const events: TrackEvent[] = [trackName('Kick hits')];
     const len = Math.max(1, Math.round(o.ppq / 8));
