@@ -31,8 +31,8 @@ export interface DetectKickOptions {
    * 1 (default): one thread. 2: the song is split between this thread and a
    * worker (server/audio/detection-split.ts) when it is long enough (~8 s
    * at 48 kHz); the hits are the same. On this project's 2-vCPU machine the
-   * second thread did not pay (a 5-minute stem: 0.76–0.87 s against
-   * 0.71–0.82 s on one, docs/engine.md), so it is not the default.
+   * second thread did not pay (a 5-minute stem: 0.53 s against 0.48 s on
+   * one, docs/engine.md), so it is not the default.
    */
   threads?: 1 | 2;
 }
