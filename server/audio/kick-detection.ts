@@ -3,7 +3,7 @@ import type { DetectionOptions, Hit, MidiKickOptions } from '../../shared/schema
 import { withDetectionDefaults } from '../../shared/schemas/hit-defaults';
 import { detectOnsetsWithLowBand } from '../../shared/dsp/onsets';
 import { createLowBandBuilder, finishLowBand, lowBandLength, pushLowBand, type LowBandBuilder } from '../../shared/dsp/low-band';
-import { findCandidates, finishHits, independentFrom, medianRadiusFrames, onsetGeometry, refineCandidates, type Candidate } from '../../shared/dsp/onsets';
+import { findCandidates, finishHits, independentFrom, medianRadiusFrames, onsetGeometry, type Candidate } from '../../shared/dsp/onsets';
 import { MEDIAN_STRIDE, movingMedianInto } from '../../shared/dsp/peak-pick';
 import { ONSET_BLOCK_FRAMES, predictionOnsetFrames, predictionOnsetFunction, type PredictionOnsetFunction } from '../../shared/dsp/onset-function';
 import { decodeRangeSync, refineFromFile, splitPlan, startTailWorker } from './detection-split';
