@@ -119,6 +119,15 @@ function encodeTrack(events: TrackEvent[]): Uint8Array {
     }
     now = e.tick;
   }
+  return finishTrack(out, at);
+}
+
+/**
+ * Closes a track whose events fill out[8, at): appends end of track
+ * (delta 0, FF 2F 00), writes the chunk header "MTrk" and its length in
+ * the 8 bytes left free at the start, and returns the chunk.
+ */
+function finishTrack(out: Uint8Array, at: number): Uint8Array {
   out[at++] = 0x00;
   out[at++] = 0xff;
   out[at++] = 0x2f;
@@ -353,12 +362,7 @@ function encodeCcTrack(name: string, stream: CcChanges, status: number, cc: numb
       at = putControlChange(out, view, at, delta, status, cc + 32, value & 0x7f);
     } else at = putControlChange(out, view, at, delta, status, cc, value);
   }
-  out[at++] = 0x00;
-  out[at++] = 0xff;
-  out[at++] = 0x2f;
-  out[at++] = 0x00;
-  out.set([0x4d, 0x54, 0x72, 0x6b, ...u32(at - 8)], 0);
-  return out.subarray(0, at);
+  return finishTrack(out, at);
 }
 
 /**
