@@ -79,8 +79,13 @@ export function createLowBandBuilder(sampleRateHz: number, totalFrames: number, 
  */
 export function pushLowBand(builder: LowBandBuilder, block: Float32Array): void {
   const pre = builder.preFactor;
-  const whole = builder.antiAlias.length === 2 && builder.carried === 0 && block.length % pre === 0;
-  if (!whole || !pushGroupMeans(builder, pre === 1 ? block : groupMeans(builder, block))) pushLowBandInStages(builder, block);
+  if (takesGroupMeans(builder) && block.length % pre === 0) pushGroupMeans(builder, pre === 1 ? block : groupMeans(builder, block));
+  else pushLowBandInStages(builder, block);
+}
+
+/** Whether the builder can take group means now: two anti-alias sections (the one-pass filter) and no samples carried. */
+function takesGroupMeans(builder: LowBandBuilder): boolean {
+  return builder.antiAlias.length === 2 && builder.carried === 0;
 }
 
 /**
@@ -91,7 +96,7 @@ export function pushLowBand(builder: LowBandBuilder, block: Float32Array): void 
  * not two anti-alias sections): push full-rate samples instead.
  */
 export function pushGroupMeans(builder: LowBandBuilder, means: Float32Array): boolean {
-  if (builder.antiAlias.length !== 2 || builder.carried !== 0) return false;
+  if (!takesGroupMeans(builder)) return false;
   const start = builder.written;
   antiAliasAndPick(builder, means);
   builder.consumed += means.length * builder.preFactor;
