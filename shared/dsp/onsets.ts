@@ -108,10 +108,6 @@ export function detectOnsets(mono: Float32Array, sampleRateHz: number, options: 
   return detectOnsetsWithLowBand(mono, lowBandOf(mono, sampleRateHz, opts.lowBandHz), sampleRateHz, opts);
 }
 
-/**
- * detectOnsets with the low band already built (the server builds it block by
- * block while decoding; shared/dsp/low-band.ts). Same units and steps.
- */
 /** What the detector measured for one candidate, for diagnostics (why a hit was kept or dropped). */
 export interface CandidateTrace {
   sample: number;
@@ -122,6 +118,11 @@ export interface CandidateTrace {
   kept: boolean;
 }
 
+/**
+ * detectOnsets with the low band already built (the server's reference path
+ * builds it block by block while decoding; shared/dsp/low-band.ts). Same
+ * units and steps. `trace` sees every candidate refined, kept or not.
+ */
 export function detectOnsetsWithLowBand(
   mono: Float32Array,
   band: LowBand,
@@ -132,7 +133,9 @@ export function detectOnsetsWithLowBand(
 ): Hit[] {
   const g = onsetGeometry(band.rateHz, tuning);
   const odf = predictionOnsetFunction(band.samples, g.hopSamples, g.fitSamples, g.windowSamples);
-  return detectOnsetsFromFunction(mono, band, odf, sampleRateHz, opts, tuning, trace);
+  const candidates = findCandidates(band, odf, opts, tuning);
+  const kept = refineCandidates({ samples: mono, start: 0 }, band, candidates, 0, candidates.length, 0, sampleRateHz, opts, tuning, trace);
+  return finishHits(kept, band, sampleRateHz, opts, tuning);
 }
 
 /** Hop, fitting window and scoring window of the onset function on a low band at `rateHz`, in low-band samples. */
@@ -142,25 +145,6 @@ export function onsetGeometry(rateHz: number, tuning: DetectionTuning = DETECTIO
     fitSamples: Math.round(tuning.fitSec * rateHz),
     windowSamples: Math.round(tuning.scoreSec * rateHz),
   };
-}
-
-/**
- * Steps 3–6 of detectOnsets with the low band and its onset function already
- * computed (server/audio/detection-split.ts computes them on two threads).
- * `odf` must be predictionOnsetFunction of band.samples with onsetGeometry.
- */
-export function detectOnsetsFromFunction(
-  mono: Float32Array,
-  band: LowBand,
-  odf: PredictionOnsetFunction,
-  sampleRateHz: number,
-  opts: DetectionOptions,
-  tuning: DetectionTuning = DETECTION_TUNING,
-  trace?: (candidate: CandidateTrace) => void,
-): Hit[] {
-  const candidates = findCandidates(band, odf, opts, tuning);
-  const kept = refineCandidates({ samples: mono, start: 0 }, band, candidates, 0, candidates.length, 0, sampleRateHz, opts, tuning, trace);
-  return finishHits(kept, band, sampleRateHz, opts, tuning);
 }
 
 /** A coarse onset (step 3) that passed the innovation floor, ready for refinement. */
