@@ -4,6 +4,7 @@ import { join } from 'node:path';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startAppServer, type AppServer } from '../helpers/app-server';
+import { openedDialog } from '../helpers/browser';
 
 // Issue 5 in a real browser: the demo owner looks after the team library, invites a new
 // assistant by e-mail (caught by the local SMTP fake), and the assistant joins through the
@@ -73,7 +74,7 @@ describe('team library and people in Chromium', () => {
   it('saves a new version through the dialog and compares it with the first', async () => {
     await owner.locator('tr.preset-row', { hasText: 'Trap 808 tuck' }).getByRole('button', { name: /Actions for/ }).click();
     await owner.getByRole('menuitem', { name: 'Edit' }).click();
-    const dialog = owner.getByRole('dialog');
+    const dialog = await openedDialog(owner);
     await dialog.getByLabel('Gain of point 2, dB').fill('-24');
     await dialog.getByLabel('Gain of point 3, dB').fill('-24');
     await dialog.getByLabel('Time of point 4, ms').fill('160');

@@ -2,7 +2,7 @@ import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startAppServer, type AppServer } from '../helpers/app-server';
-import { launchChromium, screenshotsDir, type Browser } from '../helpers/browser';
+import { launchChromium, openedDialog, screenshotsDir, type Browser } from '../helpers/browser';
 
 // The client shell in a real browser against the real server and a freshly seeded database.
 // Needs a prior `ng build` (dist/web/browser).
@@ -64,7 +64,7 @@ describe('client shell in Chromium', () => {
 
   it('creates a song through the dialog, with inline errors first', async () => {
     await page.getByRole('button', { name: 'New song' }).first().click();
-    const dialog = page.getByRole('dialog');
+    const dialog = await openedDialog(page);
     await dialog.getByRole('button', { name: 'Create song' }).click();
     await expect.poll(() => dialog.locator('mat-error').allTextContents()).toEqual(
       expect.arrayContaining(['Give the song a title.', 'Enter the tempo in BPM.']),

@@ -5,6 +5,7 @@ import { chromium, type BrowserContext, type Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { renderDemoStems } from '../../server/seed/demo-stems';
 import { startAppServer, type AppServer } from '../helpers/app-server';
+import { openedDialog } from '../helpers/browser';
 
 // The whole job in a real browser: a new song, generated stems, detection, a tuck
 // drawn by dragging, a range of hits turned off, CSV and MIDI exports checked.
@@ -52,7 +53,7 @@ describe('song workspace in Chromium', () => {
     await page.getByRole('button', { name: 'Sign in' }).click();
     await page.waitForURL(/\/songs$/);
     await page.getByRole('button', { name: 'New song' }).first().click();
-    const dialog = page.getByRole('dialog');
+    const dialog = await openedDialog(page);
     await dialog.getByLabel('Title').fill('Tidewater');
     await dialog.getByLabel('Tempo').fill('120');
     await dialog.getByRole('button', { name: 'Create song' }).click();
@@ -160,7 +161,7 @@ describe('song workspace in Chromium', () => {
   it('exports CSV and MIDI and downloads files with the song in their names', async () => {
     await step('Export').click();
     await page.getByRole('button', { name: 'New export…' }).click();
-    let dialog = page.getByRole('dialog');
+    let dialog = await openedDialog(page);
     const csvDownload = page.waitForEvent('download');
     await shot('export-dialog');
     await dialog.getByRole('button', { name: 'Export and download' }).click();
@@ -173,7 +174,7 @@ describe('song workspace in Chromium', () => {
 
     await expect.poll(() => page.getByRole('dialog').count()).toBe(0);
     await page.getByRole('button', { name: 'New export…' }).click();
-    dialog = page.getByRole('dialog');
+    dialog = await openedDialog(page);
     await dialog.getByRole('radio', { name: /MIDI CC file/ }).check();
     await dialog.getByLabel('Controller', { exact: true }).fill('11');
     const midiDownload = page.waitForEvent('download');

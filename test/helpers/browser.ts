@@ -1,7 +1,7 @@
 import { mkdirSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { chromium, type BrowserContext, type Locator, type Page } from 'playwright-core';
 
 /** Where the browser tests write the screenshots the README shows. */
 export const screenshotsDir = join(import.meta.dirname, '../../docs/screenshots');
@@ -37,4 +37,19 @@ export async function launchChromium(options: { viewport?: { width: number; heig
       rmSync(profile, { recursive: true, force: true });
     },
   };
+}
+
+/**
+ * The dialog just opened, once it has finished opening: Angular Material
+ * moves the focus into it (autoFocus 'first-tabbable') only after its open
+ * animation, so a field filled before then can lose its text to the first
+ * field when the focus arrives (seen on a loaded machine: "-24" meant for a
+ * gain landed in the preset's name). A person waits for the dialog to settle;
+ * so does this.
+ */
+export async function openedDialog(page: Page): Promise<Locator> {
+  const dialog = page.getByRole('dialog');
+  await dialog.waitFor();
+  await page.waitForFunction(() => document.activeElement?.closest('mat-dialog-container') != null);
+  return dialog;
 }
