@@ -50,6 +50,6 @@ export async function launchChromium(options: { viewport?: { width: number; heig
 export async function openedDialog(page: Page): Promise<Locator> {
   const dialog = page.getByRole('dialog');
   await dialog.waitFor();
-  await page.waitForFunction(() => document.activeElement?.closest('mat-dialog-container') != null);
+  await page.locator('mat-dialog-container:focus, mat-dialog-container :focus').waitFor();
   return dialog;
 }
